@@ -1,0 +1,170 @@
+/**
+ * Small image operations on flat Float32 buffers: Gaussian blur, block downsampling,
+ * separable max/min filters and bilinear upsampling. Each takes an optional output
+ * buffer so that callers on hot paths can reuse memory.
+ */
+import { createGray, type GrayImage } from './gray.ts';
+
+/** A normalised 1-D Gaussian kernel of standard deviation `sigma` px, radius ceil(3σ). */
+export function gaussianKernel(sigma: number): Float32Array {
+  const radius = Math.max(1, Math.ceil(3 * sigma));
+  const k = new Float32Array(2 * radius + 1);
+  let sum = 0;
+  for (let i = -radius; i <= radius; i++) {
+    const v = Math.exp((-i * i) / (2 * sigma * sigma));
+    k[i + radius] = v;
+    sum += v;
+  }
+  for (let i = 0; i < k.length; i++) k[i] /= sum;
+  return k;
+}
+
+/**
+ * Separable Gaussian blur with edge clamping.
+ * @param sigma standard deviation in px; ≤ 0 copies the image.
+ */
+export function gaussianBlur(img: GrayImage, sigma: number, out?: Float32Array): GrayImage {
+  const { width: w, height: h, data } = img;
+  const dst = out ?? new Float32Array(w * h);
+  if (sigma <= 0) {
+    dst.set(data);
+    return createGray(w, h, dst);
+  }
+  const k = gaussianKernel(sigma);
+  const r = (k.length - 1) >> 1;
+  const tmp = new Float32Array(w * h);
+  const line = new Float32Array(Math.max(w, h) + 2 * r);
+  for (let y = 0; y < h; y++) {
+    const row = y * w;
+    for (let i = 0; i < w + 2 * r; i++) {
+      const x = i - r < 0 ? 0 : i - r >= w ? w - 1 : i - r;
+      line[i] = data[row + x];
+    }
+    for (let x = 0; x < w; x++) {
+      let s = 0;
+      for (let t = 0; t < k.length; t++) s += k[t] * line[x + t];
+      tmp[row + x] = s;
+    }
+  }
+  for (let x = 0; x < w; x++) {
+    for (let i = 0; i < h + 2 * r; i++) {
+      const y = i - r < 0 ? 0 : i - r >= h ? h - 1 : i - r;
+      line[i] = tmp[y * w + x];
+    }
+    for (let y = 0; y < h; y++) {
+      let s = 0;
+      for (let t = 0; t < k.length; t++) s += k[t] * line[y + t];
+      dst[y * w + x] = s;
+    }
+  }
+  return createGray(w, h, dst);
+}
+
+/** How a block of pixels is reduced to one. */
+export type BlockReduce = 'mean' | 'max';
+
+/** Downsamples by an integer factor; partial blocks at the edges are reduced too. */
+export function downsample(img: GrayImage, factor: number, reduce: BlockReduce = 'mean'): GrayImage {
+  const { width: w, height: h, data } = img;
+  const cw = Math.ceil(w / factor);
+  const ch = Math.ceil(h / factor);
+  const out = new Float32Array(cw * ch);
+  const count = new Float32Array(cw);
+  for (let cy = 0; cy < ch; cy++) {
+    const y0 = cy * factor;
+    const y1 = Math.min(h, y0 + factor);
+    const orow = cy * cw;
+    if (reduce === 'max') out.fill(-Infinity, orow, orow + cw);
+    else count.fill(0);
+    for (let y = y0; y < y1; y++) {
+      const row = y * w;
+      for (let x = 0; x < w; x++) {
+        const cx = (x / factor) | 0;
+        const v = data[row + x];
+        if (reduce === 'max') {
+          if (v > out[orow + cx]) out[orow + cx] = v;
+        } else {
+          out[orow + cx] += v;
+          count[cx] += 1;
+        }
+      }
+    }
+    if (reduce === 'mean') for (let cx = 0; cx < cw; cx++) out[orow + cx] /= count[cx];
+  }
+  return createGray(cw, ch, out);
+}
+
+/** Separable square max (dilation) or min (erosion) filter of the given radius in px. */
+export function rankFilter(img: GrayImage, radius: number, kind: 'max' | 'min'): GrayImage {
+  const { width: w, height: h, data } = img;
+  const tmp = new Float32Array(w * h);
+  const out = new Float32Array(w * h);
+  const isMax = kind === 'max';
+  for (let y = 0; y < h; y++) {
+    const row = y * w;
+    for (let x = 0; x < w; x++) {
+      const a = Math.max(0, x - radius);
+      const b = Math.min(w - 1, x + radius);
+      let m = data[row + a];
+      for (let i = a + 1; i <= b; i++) {
+        const v = data[row + i];
+        if (isMax ? v > m : v < m) m = v;
+      }
+      tmp[row + x] = m;
+    }
+  }
+  for (let x = 0; x < w; x++) {
+    for (let y = 0; y < h; y++) {
+      const a = Math.max(0, y - radius);
+      const b = Math.min(h - 1, y + radius);
+      let m = tmp[a * w + x];
+      for (let j = a + 1; j <= b; j++) {
+        const v = tmp[j * w + x];
+        if (isMax ? v > m : v < m) m = v;
+      }
+      out[y * w + x] = m;
+    }
+  }
+  return createGray(w, h, out);
+}
+
+/**
+ * Bilinear upsampling of a coarse image made by `downsample(…, factor)` back to
+ * width × height, aligning block centres with the pixels they summarise.
+ */
+export function upsample(coarse: GrayImage, factor: number, width: number, height: number, out?: Float32Array): GrayImage {
+  const dst = out ?? new Float32Array(width * height);
+  const cw = coarse.width;
+  const ch = coarse.height;
+  const c = coarse.data;
+  const xi0 = new Int32Array(width);
+  const xi1 = new Int32Array(width);
+  const xa = new Float32Array(width);
+  for (let x = 0; x < width; x++) {
+    let fx = (x + 0.5) / factor - 0.5;
+    if (fx < 0) fx = 0;
+    if (fx > cw - 1) fx = cw - 1;
+    const i0 = fx | 0;
+    xi0[x] = i0;
+    xi1[x] = Math.min(cw - 1, i0 + 1);
+    xa[x] = fx - i0;
+  }
+  for (let y = 0; y < height; y++) {
+    let fy = (y + 0.5) / factor - 0.5;
+    if (fy < 0) fy = 0;
+    if (fy > ch - 1) fy = ch - 1;
+    const j0 = fy | 0;
+    const j1 = Math.min(ch - 1, j0 + 1);
+    const ay = fy - j0;
+    const r0 = j0 * cw;
+    const r1 = j1 * cw;
+    const row = y * width;
+    for (let x = 0; x < width; x++) {
+      const a = xa[x];
+      const top = c[r0 + xi0[x]] + (c[r0 + xi1[x]] - c[r0 + xi0[x]]) * a;
+      const bot = c[r1 + xi0[x]] + (c[r1 + xi1[x]] - c[r1 + xi0[x]]) * a;
+      dst[row + x] = top + (bot - top) * ay;
+    }
+  }
+  return createGray(width, height, dst);
+}

@@ -1,0 +1,250 @@
+/**
+ * Sub-pixel refinement of the exact discrete path: the pixel path is resampled at
+ * ≤ 1 px spacing, lightly smoothed, then each sample's position (along its normal) and
+ * radius are improved by coordinate descent on the continuous form of the same energy
+ * (energy.ts), with the anchors' positions held fixed. The only change is that |Δr| is
+ * smoothed to √(Δr² + ε²) so that a width change across an inkless span is spread evenly.
+ */
+import type { GrayImage } from '../image/gray.ts';
+import { ChordProfile, chordAdherence, chordPresence, chordSupport, type ChordModel, type Weights } from './energy.ts';
+import type { SampleSpan, StrokeSample } from './types.ts';
+
+export interface RefineOptions {
+  weights: Weights;
+  chord: ChordModel;
+  radiusMin: number;
+  radiusMax: number;
+  /** Sample spacing, px (≤ 1). Default 1. */
+  spacing: number;
+  /** Support below which a sample counts as unsupported by ink. Default 0.35. */
+  supportThreshold: number;
+  /** Shortest run of unsupported samples reported as a restored span, px. Default 3. */
+  minRestoredLength: number;
+}
+
+/** ε of the smoothed |Δr|, px. */
+const EPS_R = 0.05;
+
+interface Work {
+  x: Float64Array;
+  y: Float64Array;
+  r: Float64Array;
+  fixed: Uint8Array;
+  n: number;
+}
+
+/**
+ * Resamples a polyline with radii so that each span between consecutive fixed points
+ * (indices in `fixedAt`) is split into equal steps of at most `spacing` px.
+ */
+function resample(px: number[], py: number[], pr: number[], fixedAt: number[], spacing: number): Work {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  const rs: number[] = [];
+  const fixed: number[] = [];
+  for (let s = 0; s + 1 < fixedAt.length; s++) {
+    const a = fixedAt[s];
+    const b = fixedAt[s + 1];
+    const cum: number[] = [0];
+    for (let i = a + 1; i <= b; i++) cum.push(cum[cum.length - 1] + Math.hypot(px[i] - px[i - 1], py[i] - py[i - 1]));
+    const total = cum[cum.length - 1];
+    const steps = Math.max(1, Math.ceil(total / spacing - 1e-9));
+    let seg = 0;
+    for (let j = 0; j < steps; j++) {
+      const t = (total * j) / steps;
+      while (seg < cum.length - 2 && cum[seg + 1] < t) seg++;
+      const l = cum[seg + 1] - cum[seg];
+      const u = l > 0 ? (t - cum[seg]) / l : 0;
+      const i = a + seg;
+      xs.push(px[i] + (px[i + 1] - px[i]) * u);
+      ys.push(py[i] + (py[i + 1] - py[i]) * u);
+      rs.push(pr[i] + (pr[i + 1] - pr[i]) * u);
+      fixed.push(j === 0 ? 1 : 0);
+    }
+  }
+  const last = fixedAt[fixedAt.length - 1];
+  xs.push(px[last]);
+  ys.push(py[last]);
+  rs.push(pr[last]);
+  fixed.push(1);
+  return {
+    x: Float64Array.from(xs), y: Float64Array.from(ys), r: Float64Array.from(rs), fixed: Uint8Array.from(fixed), n: xs.length,
+  };
+}
+
+/** Binomial smoothing [1 2 1]/4 of positions and radii; fixed samples keep their position. */
+function smooth(w: Work, passes: number): void {
+  const { x, y, r, fixed, n } = w;
+  const tx = new Float64Array(n);
+  const ty = new Float64Array(n);
+  const tr = new Float64Array(n);
+  for (let p = 0; p < passes; p++) {
+    for (let i = 0; i < n; i++) {
+      if (fixed[i] || i === 0 || i === n - 1) {
+        tx[i] = x[i];
+        ty[i] = y[i];
+      } else {
+        tx[i] = 0.25 * (x[i - 1] + 2 * x[i] + x[i + 1]);
+        ty[i] = 0.25 * (y[i - 1] + 2 * y[i] + y[i + 1]);
+      }
+      const a = r[i > 0 ? i - 1 : i];
+      const b = r[i < n - 1 ? i + 1 : i];
+      tr[i] = 0.25 * (a + 2 * r[i] + b);
+    }
+    x.set(tx);
+    y.set(ty);
+    r.set(tr);
+  }
+}
+
+export interface RefinedStroke {
+  samples: StrokeSample[];
+  restoredSpans: SampleSpan[];
+}
+
+/**
+ * Refines a discrete path (pixel centres and radii; `fixedAt` lists the indices of the
+ * anchors, whose exact positions are in ax/ay) into stroke samples.
+ */
+export function refinePath(
+  ink: GrayImage, px: number[], py: number[], pr: number[], fixedAt: number[], options: RefineOptions,
+): RefinedStroke {
+  const w = resample(px, py, pr, fixedAt, options.spacing);
+  smooth(w, 3);
+  const { x, y, r, fixed, n } = w;
+  const { weights, chord } = options;
+  const profile = new ChordProfile(options.radiusMax + 1, chord);
+  const A = weights.adherence;
+  const lam = weights.length;
+  const W = weights.widthChange;
+  const C = weights.curvature;
+  // Cached per-sample presence q (depends on position only) and tangents.
+  const q = new Float64Array(n);
+  const tx = new Float64Array(n);
+  const ty = new Float64Array(n);
+
+  const tangent = (i: number): void => {
+    const a = i > 0 ? i - 1 : i;
+    const b = i < n - 1 ? i + 1 : i;
+    const dx = x[b] - x[a];
+    const dy = y[b] - y[a];
+    const l = Math.hypot(dx, dy) || 1;
+    tx[i] = dx / l;
+    ty[i] = dy / l;
+  };
+  const sabs = (v: number): number => Math.sqrt(v * v + EPS_R * EPS_R);
+  const stepLen = (i: number): number => Math.hypot(x[i] - x[i - 1], y[i] - y[i - 1]);
+  /** Adherence term of step i (arrival at sample i) with the current tangent. */
+  const adhTerm = (i: number): number => {
+    if (i <= 0 || i >= n) return 0;
+    profile.sample(ink, x[i], y[i], tx[i], ty[i]);
+    q[i] = chordPresence(profile, chord);
+    return stepLen(i) * (lam + A * chordAdherence(profile, r[i], chord, q[i]));
+  };
+  const turnTerm = (i: number): number => {
+    if (i <= 0 || i >= n - 1) return 0;
+    const ax = x[i] - x[i - 1];
+    const ay = y[i] - y[i - 1];
+    const bx = x[i + 1] - x[i];
+    const by = y[i + 1] - y[i];
+    const la = Math.hypot(ax, ay);
+    const lb = Math.hypot(bx, by);
+    if (la === 0 || lb === 0) return 0;
+    const dt = Math.atan2(ax * by - ay * bx, ax * bx + ay * by);
+    return (C * dt * dt) / (0.5 * (la + lb));
+  };
+  const local = (i: number): number => {
+    let e = 0;
+    for (let j = i - 1; j <= i + 1; j++) {
+      if (j < 0 || j >= n) continue;
+      e += adhTerm(j) + turnTerm(j);
+    }
+    return e;
+  };
+
+  for (let i = 0; i < n; i++) tangent(i);
+  const posSteps = [0.5, 0.25, 0.125, 0.0625];
+  const radSteps = [0.25, 0.125, 0.0625, 0.03125];
+  for (let level = 0; level < posSteps.length; level++) {
+    for (let sweep = 0; sweep < 2; sweep++) {
+      // Positions, along the normal.
+      const sp = posSteps[level];
+      for (let i = 1; i < n - 1; i++) {
+        if (fixed[i]) continue;
+        const nx = -ty[i];
+        const ny = tx[i];
+        const x0 = x[i];
+        const y0 = y[i];
+        let best = local(i);
+        let bestOff = 0;
+        for (const off of [-sp, sp]) {
+          x[i] = x0 + nx * off;
+          y[i] = y0 + ny * off;
+          tangent(i - 1);
+          tangent(i + 1);
+          const e = local(i);
+          if (e < best - 1e-12) {
+            best = e;
+            bestOff = off;
+          }
+        }
+        x[i] = x0 + nx * bestOff;
+        y[i] = y0 + ny * bestOff;
+        tangent(i - 1);
+        tangent(i + 1);
+      }
+      for (let i = 0; i < n; i++) tangent(i);
+      // Radii.
+      const sr = radSteps[level];
+      for (let i = 0; i < n; i++) {
+        const ri = r[i];
+        const cost = (rv: number): number => {
+          let e = 0;
+          if (i > 0) {
+            profile.sample(ink, x[i], y[i], tx[i], ty[i]);
+            e += stepLen(i) * A * chordAdherence(profile, rv, chord, chordPresence(profile, chord));
+            e += W * sabs(rv - r[i - 1]);
+          }
+          if (i < n - 1) e += W * sabs(r[i + 1] - rv);
+          return e;
+        };
+        let best = cost(ri);
+        let bestR = ri;
+        for (const rv of [ri - sr, ri + sr]) {
+          if (rv < options.radiusMin || rv > options.radiusMax) continue;
+          const e = cost(rv);
+          if (e < best - 1e-12) {
+            best = e;
+            bestR = rv;
+          }
+        }
+        r[i] = bestR;
+      }
+    }
+  }
+  const samples: StrokeSample[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    profile.sample(ink, x[i], y[i], tx[i], ty[i]);
+    samples[i] = { x: x[i], y: y[i], r: r[i], support: chordSupport(profile, r[i]) };
+  }
+  return { samples, restoredSpans: findRestoredSpans(samples, options.supportThreshold, options.minRestoredLength) };
+}
+
+/** Runs of samples with support below the threshold, at least minLength px long. */
+export function findRestoredSpans(samples: StrokeSample[], threshold: number, minLength: number): SampleSpan[] {
+  const spans: SampleSpan[] = [];
+  let i = 0;
+  while (i < samples.length) {
+    if (samples[i].support >= threshold) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j + 1 < samples.length && samples[j + 1].support < threshold) j++;
+    let len = 0;
+    for (let k = i + 1; k <= j; k++) len += Math.hypot(samples[k].x - samples[k - 1].x, samples[k].y - samples[k - 1].y);
+    if (len >= minLength) spans.push({ from: i, to: j });
+    i = j + 1;
+  }
+  return spans;
+}

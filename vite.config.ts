@@ -1,0 +1,16 @@
+/// <reference types="vitest/config" />
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+
+export default defineConfig({
+  root: '.',
+  plugins: [react()],
+  build: { outDir: 'dist', target: 'es2022' },
+  worker: { format: 'es' },
+  test: {
+    include: ['test/**/*.test.ts'],
+    environment: 'node',
+    testTimeout: 120_000,
+    hookTimeout: 120_000,
+  },
+});
