@@ -25,7 +25,6 @@
  * width and curvature terms carry the pen across with steady width and direction.
  */
 import type { GrayImage } from '../image/gray.ts';
-import { sampleBilinear } from '../image/gray.ts';
 
 export interface Weights {
   /** A: weight of staying on ink. Default 1. */
@@ -70,17 +69,38 @@ export class ChordProfile {
     this.f = new Float64Array(2 * this.half + 1);
   }
 
-  /** Samples the evidence across the unit tangent (tx, ty) through (x, y). */
+  /**
+   * Samples the evidence across the unit tangent (tx, ty) through (x, y): bilinear,
+   * pixel-centre convention, edge clamped (as sampleBilinear, inlined: this is the
+   * solver's innermost loop).
+   */
   sample(ink: GrayImage, x: number, y: number, tx: number, ty: number): void {
     const { half, h, e, f } = this;
-    const nx = -ty;
-    const ny = tx;
-    for (let j = 0; j <= 2 * half; j++) {
-      const t = (j - half) * h;
-      e[j] = sampleBilinear(ink, x + nx * t, y + ny * t);
+    const { width: W, height: H, data } = ink;
+    const nx = -ty * h;
+    const ny = tx * h;
+    const J = 2 * half;
+    for (let j = 0; j <= J; j++) {
+      let fx = x + nx * (j - half) - 0.5;
+      let fy = y + ny * (j - half) - 0.5;
+      if (fx < 0) fx = 0;
+      else if (fx > W - 1) fx = W - 1;
+      if (fy < 0) fy = 0;
+      else if (fy > H - 1) fy = H - 1;
+      const i0 = fx | 0;
+      const j0 = fy | 0;
+      const i1 = i0 + 1 < W ? i0 + 1 : i0;
+      const r0 = j0 * W;
+      const r1 = (j0 + 1 < H ? j0 + 1 : j0) * W;
+      const ax = fx - i0;
+      const ay = fy - j0;
+      const top = data[r0 + i0] + (data[r0 + i1] - data[r0 + i0]) * ax;
+      const bot = data[r1 + i0] + (data[r1 + i1] - data[r1 + i0]) * ax;
+      e[j] = top + (bot - top) * ay;
     }
     f[0] = 0;
-    for (let j = 1; j <= 2 * half; j++) f[j] = f[j - 1] + 0.5 * h * (e[j - 1] + e[j]);
+    const hh = 0.5 * h;
+    for (let j = 1; j <= J; j++) f[j] = f[j - 1] + hh * (e[j - 1] + e[j]);
   }
 
   /** ∫ E from the chord's first sample to offset t (|t| within the sampled range). */

@@ -5,3 +5,4 @@ export {
   followStroke, validateRequest, FollowError, FollowCancelled, DEFAULT_RADIUS,
   type FollowRequest, type FollowResult, type FollowStats, type FollowControl,
 } from './follow.ts';
+export { PreviewTree, startPreview, type PreviewOptions } from './preview.ts';

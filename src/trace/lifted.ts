@@ -124,8 +124,7 @@ function adherenceTable(ink: GrayImage, domain: Domain, radii: Float64Array, cho
   const K = radii.length;
   const n = domain.count;
   const adh = new Float32Array(n * ORIENTATIONS * K);
-  const { half, h, e, f } = profile;
-  const J = 2 * half;
+  const { half, h, f } = profile;
   const aligned = radii.every((r) => Math.abs(r / h - Math.round(r / h)) < 1e-9) &&
     Math.abs(chord.outerWidth / h - Math.round(chord.outerWidth / h)) < 1e-9 &&
     Math.abs(chord.coreRadius / h - Math.round(chord.coreRadius / h)) < 1e-9;
@@ -133,7 +132,6 @@ function adherenceTable(ink: GrayImage, domain: Domain, radii: Float64Array, cho
   for (let k = 0; k < K; k++) jr[k] = Math.round(radii[k] / h);
   const jo = Math.round(chord.outerWidth / h);
   const jc = Math.round(chord.coreRadius / h);
-  const { width: W, height: H, data } = ink;
   const offInk = chord.offInk;
   const otx = ORIENT_TX;
   const oty = ORIENT_TY;
@@ -141,36 +139,13 @@ function adherenceTable(ink: GrayImage, domain: Domain, radii: Float64Array, cho
     const x = domain.cellX[c] + 0.5;
     const y = domain.cellY[c] + 0.5;
     for (let o = 0; o < ORIENTATIONS; o++) {
-      const nx = -oty[o] * h;
-      const ny = otx[o] * h;
       const base = (c * ORIENTATIONS + o) * K;
+      profile.sample(ink, x, y, otx[o], oty[o]);
       if (!aligned) {
-        profile.sample(ink, x, y, ORIENT_TX[o], ORIENT_TY[o]);
         const q = chordPresence(profile, chord);
         for (let k = 0; k < K; k++) adh[base + k] = chordAdherence(profile, radii[k], chord, q);
         continue;
       }
-      // Bilinear samples along the normal (pixel-centre convention, edge clamped).
-      for (let j = 0; j <= J; j++) {
-        let fx = x + nx * (j - half) - 0.5;
-        let fy = y + ny * (j - half) - 0.5;
-        if (fx < 0) fx = 0;
-        else if (fx > W - 1) fx = W - 1;
-        if (fy < 0) fy = 0;
-        else if (fy > H - 1) fy = H - 1;
-        const i0 = fx | 0;
-        const j0 = fy | 0;
-        const i1 = i0 + 1 < W ? i0 + 1 : i0;
-        const r0 = j0 * W;
-        const r1 = (j0 + 1 < H ? j0 + 1 : j0) * W;
-        const ax = fx - i0;
-        const ay = fy - j0;
-        const top = data[r0 + i0] + (data[r0 + i1] - data[r0 + i0]) * ax;
-        const bot = data[r1 + i0] + (data[r1 + i1] - data[r1 + i0]) * ax;
-        e[j] = top + (bot - top) * ay;
-      }
-      f[0] = 0;
-      for (let j = 1; j <= J; j++) f[j] = f[j - 1] + 0.5 * h * (e[j - 1] + e[j]);
       let q = (f[half + jc] - f[half - jc]) / (2 * jc * h);
       q = q < 0 ? 0 : q > 1 ? 1 : q;
       for (let k = 0; k < K; k++) {

@@ -118,12 +118,14 @@ export function refinePath(
   const lam = weights.length;
   const W = weights.widthChange;
   const C = weights.curvature;
-  // Cached per-sample presence q (depends on position only) and tangents.
-  const q = new Float64Array(n);
   const tx = new Float64Array(n);
   const ty = new Float64Array(n);
+  // adhCache[i]: the adherence term of step i (arrival at sample i) for the current
+  // positions, radii and tangents; NaN when stale.
+  const adhCache = new Float64Array(n).fill(NaN);
 
   const tangent = (i: number): void => {
+    if (i < 0 || i >= n) return;
     const a = i > 0 ? i - 1 : i;
     const b = i < n - 1 ? i + 1 : i;
     const dx = x[b] - x[a];
@@ -134,12 +136,16 @@ export function refinePath(
   };
   const sabs = (v: number): number => Math.sqrt(v * v + EPS_R * EPS_R);
   const stepLen = (i: number): number => Math.hypot(x[i] - x[i - 1], y[i] - y[i - 1]);
-  /** Adherence term of step i (arrival at sample i) with the current tangent. */
+  /** Adherence (and length) term of step i with the current state. */
   const adhTerm = (i: number): number => {
     if (i <= 0 || i >= n) return 0;
     profile.sample(ink, x[i], y[i], tx[i], ty[i]);
-    q[i] = chordPresence(profile, chord);
-    return stepLen(i) * (lam + A * chordAdherence(profile, r[i], chord, q[i]));
+    return stepLen(i) * (lam + A * chordAdherence(profile, r[i], chord, chordPresence(profile, chord)));
+  };
+  const cachedAdh = (i: number): number => {
+    if (i <= 0 || i >= n) return 0;
+    if (Number.isNaN(adhCache[i])) adhCache[i] = adhTerm(i);
+    return adhCache[i];
   };
   const turnTerm = (i: number): number => {
     if (i <= 0 || i >= n - 1) return 0;
@@ -153,14 +159,11 @@ export function refinePath(
     const dt = Math.atan2(ax * by - ay * bx, ax * bx + ay * by);
     return (C * dt * dt) / (0.5 * (la + lb));
   };
-  const local = (i: number): number => {
-    let e = 0;
-    for (let j = i - 1; j <= i + 1; j++) {
-      if (j < 0 || j >= n) continue;
-      e += adhTerm(j) + turnTerm(j);
-    }
-    return e;
-  };
+  /** The terms that depend on sample i's position: steps i−1..i+1 and their turns. */
+  const localCached = (i: number): number =>
+    cachedAdh(i - 1) + cachedAdh(i) + cachedAdh(i + 1) + turnTerm(i - 1) + turnTerm(i) + turnTerm(i + 1);
+  const localFresh = (i: number): number =>
+    adhTerm(i - 1) + adhTerm(i) + adhTerm(i + 1) + turnTerm(i - 1) + turnTerm(i) + turnTerm(i + 1);
 
   for (let i = 0; i < n; i++) tangent(i);
   const posSteps = [0.5, 0.25, 0.125, 0.0625];
@@ -175,14 +178,15 @@ export function refinePath(
         const ny = tx[i];
         const x0 = x[i];
         const y0 = y[i];
-        let best = local(i);
+        let best = localCached(i);
         let bestOff = 0;
         for (const off of [-sp, sp]) {
           x[i] = x0 + nx * off;
           y[i] = y0 + ny * off;
           tangent(i - 1);
+          tangent(i);
           tangent(i + 1);
-          const e = local(i);
+          const e = localFresh(i);
           if (e < best - 1e-12) {
             best = e;
             bestOff = off;
@@ -191,23 +195,23 @@ export function refinePath(
         x[i] = x0 + nx * bestOff;
         y[i] = y0 + ny * bestOff;
         tangent(i - 1);
+        tangent(i);
         tangent(i + 1);
+        if (bestOff !== 0) {
+          adhCache[i - 1] = NaN;
+          adhCache[i] = NaN;
+          adhCache[i + 1] = NaN;
+        }
       }
-      for (let i = 0; i < n; i++) tangent(i);
-      // Radii.
+      // Radii: the chord profile does not depend on r, so sample it once per sample.
       const sr = radSteps[level];
-      for (let i = 0; i < n; i++) {
+      for (let i = 1; i < n; i++) {
+        profile.sample(ink, x[i], y[i], tx[i], ty[i]);
+        const qi = chordPresence(profile, chord);
+        const li = stepLen(i) * A;
+        const cost = (rv: number): number =>
+          li * chordAdherence(profile, rv, chord, qi) + W * sabs(rv - r[i - 1]) + (i < n - 1 ? W * sabs(r[i + 1] - rv) : 0);
         const ri = r[i];
-        const cost = (rv: number): number => {
-          let e = 0;
-          if (i > 0) {
-            profile.sample(ink, x[i], y[i], tx[i], ty[i]);
-            e += stepLen(i) * A * chordAdherence(profile, rv, chord, chordPresence(profile, chord));
-            e += W * sabs(rv - r[i - 1]);
-          }
-          if (i < n - 1) e += W * sabs(r[i + 1] - rv);
-          return e;
-        };
         let best = cost(ri);
         let bestR = ri;
         for (const rv of [ri - sr, ri + sr]) {
@@ -218,10 +222,16 @@ export function refinePath(
             bestR = rv;
           }
         }
-        r[i] = bestR;
+        if (bestR !== ri) {
+          r[i] = bestR;
+          adhCache[i] = NaN;
+        }
       }
+      // Step 0 has no adherence term of its own: its radius follows step 1.
+      r[0] = r[n > 1 ? 1 : 0];
     }
   }
+
   const samples: StrokeSample[] = new Array(n);
   for (let i = 0; i < n; i++) {
     profile.sample(ink, x[i], y[i], tx[i], ty[i]);
