@@ -7,7 +7,10 @@
  *    background estimate for dark writing on a lighter ground), then smoothed.
  * 3. The ink signal is the relative darkening against that background,
  *    (B − I) / B, which removes multiplicative shading.
- * 4. Local contrast is normalised by the local ink strength (a smoothed local maximum
+ * 4. A white top-hat (the signal minus its morphological opening by a square wider than
+ *    the widest pen) keeps thin strokes and drops broad blotches, so that a stain
+ *    darker than the ink neither passes for ink nor dims the ink beside it.
+ * 5. Local contrast is normalised by the local ink strength (a smoothed local maximum
  *    of the signal), so that faded ink reaches about 1 at the centre of its stroke
  *    like well-preserved ink; a floor tied to the noise level keeps bare surface low.
  */
@@ -19,10 +22,12 @@ export type InkEvidence = GrayImage;
 export interface InkOptions {
   /** 'dark' ink on a lighter ground (default) or 'light' ink on a darker ground. */
   polarity?: 'dark' | 'light';
-  /** Noise smoothing, Gaussian σ in px. Default 0.7. */
+  /** Noise smoothing, Gaussian σ in px. Default 1. */
   smoothing?: number;
   /** Largest ink half-width the background estimate must bridge, px. Default 12. */
   backgroundRadius?: number;
+  /** Half-width of the widest ink line the top-hat keeps, px. Default 7. */
+  maxInkRadius?: number;
   /** Radius over which local ink strength is measured, px. Default 16. */
   contrastRadius?: number;
   /** Floor of the local strength in multiples of the noise σ. Default 5. */
@@ -35,8 +40,9 @@ export interface InkOptions {
 
 export const DEFAULT_INK_OPTIONS: Required<InkOptions> = {
   polarity: 'dark',
-  smoothing: 0.7,
+  smoothing: 1,
   backgroundRadius: 12,
+  maxInkRadius: 7,
   contrastRadius: 16,
   noiseFloor: 5,
   minStrength: 0.06,
@@ -69,6 +75,10 @@ export function inkEvidence(image: GrayImage, options: InkOptions = {}): InkEvid
     const b = signal[p] > 0.02 ? signal[p] : 0.02;
     signal[p] = (b - smooth.data[p]) / b;
   }
+  // Top-hat: remove what an opening wider than any pen keeps (blotches, broad shading).
+  const ri = Math.max(1, Math.round(o.maxInkRadius));
+  const opened = rankFilter(rankFilter(createGray(w, h, signal), ri, 'min'), ri, 'max');
+  for (let p = 0; p < n; p++) signal[p] -= opened.data[p];
   const sigmaNoise = robustSigma(signal);
 
   // Local ink strength: max of the signal over contrastRadius, smoothed.

@@ -62,4 +62,22 @@ export interface InscriptionTruth {
   ruler: { x0: number; y0: number; x1: number; y1: number; mm: number };
   letters: TruthLetter[];
   strokes: TruthStroke[];
+  /** Base pen radius of the inscription, px (each stroke varies around it). */
+  penRadius?: number;
+  /** Nominal letter height, px. */
+  letterHeight?: number;
+  /** The ruler's card [x0, y0, x1, y1], px: not inscription surface. */
+  rulerBox?: [number, number, number, number];
+  /** Strength of each degradation applied (see Degradation in synth/presets.ts). */
+  degradation?: Record<string, number>;
+  /** Marks painted on the surface that are not ink. */
+  damage?: TruthDamage;
+}
+
+/** Stains and cracks of a synthetic inscription (not ink; a tracer should ignore them). */
+export interface TruthDamage {
+  /** Centre and largest radius, px. */
+  stains: { x: number; y: number; radius: number }[];
+  /** Centreline points and width, px. */
+  cracks: { width: number; points: [number, number][] }[];
 }

@@ -1,12 +1,16 @@
 /**
  * The cheap first path: a shortest 8-connected path on the half-resolution smoothed
- * ink evidence, priced like the solver's off-ink cost. It only places the search tube;
- * the exact solve decides the stroke.
+ * ink evidence, priced like the solver's adherence with a typical width fit: per px
+ * λ + A · (q · κ · typicalFit + (1 − q) · offInk), q the presence ramp of the evidence.
+ * It only places the search tube; the exact solve decides the stroke.
  */
 import { cellAt, boxDomain } from './domain.ts';
-import type { ChordModel, Weights } from './energy.ts';
+import { presenceRamp, type ChordModel, type Weights } from './energy.ts';
 import { FlatHeap } from './heap.ts';
 import { COARSE_FACTOR, type PreparedInk } from './prepare.ts';
+
+/** In + Out of a pen well placed on real ink with soft edges, px (a typical value). */
+const TYPICAL_FIT = 1.5;
 
 const NX = [1, 1, 0, -1, -1, -1, 0, 1];
 const NY = [0, 1, 1, 1, 0, -1, -1, -1];
@@ -47,9 +51,13 @@ function coarsePathInBox(
   const start = cellAt(dom, sx, sy);
   const goal = cellAt(dom, tx, ty);
   const lam = weights.length;
-  const offA = weights.adherence * chord.offInk;
-  const data = cimg.data;
-  const W = cimg.width;
+  const A = weights.adherence;
+  // Per-pixel price of arriving, from the presence ramp of the coarse evidence.
+  const price = new Float64Array(n);
+  for (let c = 0; c < n; c++) {
+    const q = presenceRamp(cimg.data[dom.cellY[c] * cimg.width + dom.cellX[c]], chord);
+    price[c] = lam + A * (q * chord.fitWeight * TYPICAL_FIT + (1 - q) * chord.offInk);
+  }
   g[start] = 0;
   heap.push(start, lam * f * Math.hypot(tx - sx, ty - sy));
   while (heap.length > 0) {
@@ -65,8 +73,7 @@ function coarsePathInBox(
       const x2 = x + NX[i];
       const y2 = y + NY[i];
       const len = (i & 1 ? Math.SQRT2 : 1) * f;
-      const e = data[y2 * W + x2];
-      const ng = g[c] + len * (lam + offA * (1 - e));
+      const ng = g[c] + len * price[c2];
       if (ng < g[c2]) {
         g[c2] = ng;
         parent[c2] = c;

@@ -9,19 +9,21 @@
  * with Δθ the turning angle between the two steps and ℓ̄ their mean length (a discrete
  * elastica: squared curvature per length), λ the length cost, and the adherence
  *
- *   adh(p, θ, r) = q · [ In(r) + Out(r) ] + (1 − q) · offInk
+ *   adh(p, θ, r) = q · κ · [ In(r) + Out(r) ] + (1 − q) · offInk
  *
  * measured along the chord through p across the direction of travel (the line swept by
  * the pen disk as it moves), with E the ink evidence along that chord at offset t:
  *
  *   In(r)  = ∫_{−r}^{r} (1 − E(t)) dt                 ink missing inside the pen,
  *   Out(r) = ∫_{r}^{r+δ} E(t) dt + ∫_{−r−δ}^{−r} E(t) dt   ink left uncovered just beyond its edge,
- *   q      = mean of E over |t| ≤ coreRadius           is there ink at the centre at all.
+ *   q      = ramp of m = mean of E over |t| ≤ coreRadius: 0 below presenceLow, 1 above
+ *            presenceHigh, linear between        is there ink at the centre at all.
  *
  * In + Out is smallest when the pen's edge sits where the ink ends (E = ½ on a
  * symmetric edge), so the radius is not biased; probing only across the direction of
- * travel keeps the ink ahead and behind from inflating it. Where there is no ink
- * (q ≈ 0, an abrasion gap) the cost is the constant offInk whatever the radius, so the
+ * travel keeps the ink ahead and behind from inflating it. The presence ramp keeps weak
+ * clutter of a rough surface from passing for faint ink. Where there is no ink
+ * (q = 0, an abrasion gap or bare surface) the cost is the constant offInk whatever the radius, so the
  * width and curvature terms carry the pen across with steady width and direction.
  */
 import type { GrayImage } from '../image/gray.ts';
@@ -44,13 +46,23 @@ export interface ChordModel {
   outerWidth: number;
   /** Half-width of the central chord that decides whether ink is present, px. Default 1. */
   coreRadius: number;
-  /** Adherence where no ink is present (px of missing ink per px of travel). Default 3. */
+  /**
+   * κ: weight of the width fit In + Out against offInk. On real ink the fit never
+   * reaches 0 (edges are soft), so κ < 1 keeps faint but real ink clearly cheaper than
+   * bare surface; it does not move the best radius. Default 0.35.
+   */
+  fitWeight: number;
+  /** Mean central evidence below which no ink is present (q = 0). Default 0.2. */
+  presenceLow: number;
+  /** Mean central evidence above which ink is fully present (q = 1). Default 0.8. */
+  presenceHigh: number;
+  /** Adherence where no ink is present (px of missing ink per px of travel). Default 5. */
   offInk: number;
   /** Spacing of the samples along the chord, px. Default 0.5. */
   spacing: number;
 }
 
-export const DEFAULT_CHORD: ChordModel = { outerWidth: 1.5, coreRadius: 1, offInk: 3, spacing: 0.5 };
+export const DEFAULT_CHORD: ChordModel = { outerWidth: 1.5, coreRadius: 1, fitWeight: 0.35, presenceLow: 0.2, presenceHigh: 0.8, offInk: 5, spacing: 0.5 };
 
 /**
  * Scratch space for one chord profile: E sampled at t_j = (j − J)·h for j = 0..2J, and
@@ -124,13 +136,18 @@ export class ChordProfile {
 export function chordAdherence(p: ChordProfile, r: number, model: ChordModel, q: number): number {
   const inside = 2 * r - p.between(-r, r);
   const outer = p.between(r, r + model.outerWidth) + p.between(-r - model.outerWidth, -r);
-  return q * (inside + outer) + (1 - q) * model.offInk;
+  return q * model.fitWeight * (inside + outer) + (1 - q) * model.offInk;
 }
 
-/** q: mean evidence over the central chord, |t| ≤ coreRadius. */
+/** q: the presence of ink from the mean evidence over the central chord, |t| ≤ coreRadius. */
 export function chordPresence(p: ChordProfile, model: ChordModel): number {
   const c = model.coreRadius;
-  const q = p.between(-c, c) / (2 * c);
+  return presenceRamp(p.between(-c, c) / (2 * c), model);
+}
+
+/** q from the mean central evidence m. */
+export function presenceRamp(m: number, model: ChordModel): number {
+  const q = (m - model.presenceLow) / (model.presenceHigh - model.presenceLow);
   return q < 0 ? 0 : q > 1 ? 1 : q;
 }
 

@@ -18,7 +18,7 @@
 import type { GrayImage } from '../image/gray.ts';
 import { ANGLE, DIRECTIONS, DX, DY, ORIENTATIONS, ORIENT_TX, ORIENT_TY, STEP_LENGTH, angleDiff } from './directions.ts';
 import { cellAt, type Domain } from './domain.ts';
-import { ChordProfile, chordAdherence, chordPresence, type ChordModel, type Weights } from './energy.ts';
+import { ChordProfile, chordAdherence, chordPresence, presenceRamp, type ChordModel, type Weights } from './energy.ts';
 import { FlatHeap } from './heap.ts';
 import type { CostBreakdown } from './types.ts';
 
@@ -133,6 +133,7 @@ function adherenceTable(ink: GrayImage, domain: Domain, radii: Float64Array, cho
   const jo = Math.round(chord.outerWidth / h);
   const jc = Math.round(chord.coreRadius / h);
   const offInk = chord.offInk;
+  const kappa = chord.fitWeight;
   const otx = ORIENT_TX;
   const oty = ORIENT_TY;
   for (let c = 0; c < n; c++) {
@@ -146,14 +147,13 @@ function adherenceTable(ink: GrayImage, domain: Domain, radii: Float64Array, cho
         for (let k = 0; k < K; k++) adh[base + k] = chordAdherence(profile, radii[k], chord, q);
         continue;
       }
-      let q = (f[half + jc] - f[half - jc]) / (2 * jc * h);
-      q = q < 0 ? 0 : q > 1 ? 1 : q;
+      const q = presenceRamp((f[half + jc] - f[half - jc]) / (2 * jc * h), chord);
       for (let k = 0; k < K; k++) {
         const a = half - jr[k];
         const b = half + jr[k];
         const inside = 2 * radii[k] - (f[b] - f[a]);
         const outer = f[b + jo] - f[b] + (f[a] - f[a - jo]);
-        adh[base + k] = q * (inside + outer) + (1 - q) * offInk;
+        adh[base + k] = q * kappa * (inside + outer) + (1 - q) * offInk;
       }
     }
   }

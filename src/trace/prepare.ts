@@ -13,13 +13,13 @@ export const COARSE_FACTOR = 2;
 
 export interface PreparedInk {
   readonly evidence: InkEvidence;
-  /** Ink evidence averaged over 2×2 blocks and smoothed (σ = 1 coarse px). */
+  /** Ink evidence reduced by the maximum over 2×2 blocks (thin lines survive), smoothed (σ = 0.7 coarse px). */
   readonly coarse: GrayImage;
   /** Buffers reused by successive solves on this image (not thread-safe). */
   readonly workspace: LiftedWorkspace;
 }
 
 export function prepareInk(evidence: InkEvidence): PreparedInk {
-  const coarse = gaussianBlur(downsample(evidence, COARSE_FACTOR, 'mean'), 1);
+  const coarse = gaussianBlur(downsample(evidence, COARSE_FACTOR, 'max'), 0.7);
   return { evidence, coarse, workspace: new LiftedWorkspace() };
 }

@@ -1,0 +1,43 @@
+import { defineConfig } from '@playwright/test';
+
+// Debian's Chromium: the test tool's own browser download does not work on these machines.
+const CHROMIUM = process.env.INKROUTE_CHROMIUM ?? '/usr/bin/chromium';
+
+export default defineConfig({
+  testDir: 'e2e',
+  // A folder of its own: Playwright empties its output folder, and the unit report sits beside it.
+  outputDir: 'test-results/e2e',
+  fullyParallel: true,
+  forbidOnly: Boolean(process.env.CI),
+  retries: 0,
+  workers: process.env.CI ? 1 : undefined,
+  timeout: 30_000,
+  reporter: [['list'], ['json', { outputFile: 'test-results/e2e.json' }]],
+  use: {
+    baseURL: 'http://127.0.0.1:4173',
+    viewport: { width: 1280, height: 800 },
+    trace: 'retain-on-failure',
+  },
+  projects: [
+    {
+      name: 'chromium',
+      use: {
+        browserName: 'chromium',
+        launchOptions: {
+          executablePath: CHROMIUM,
+          // Without the networking flags Chromium keeps reaching out to the network.
+          args: [
+            '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
+            '--disable-background-networking', '--disable-component-update', '--disable-sync',
+          ],
+        },
+      },
+    },
+  ],
+  webServer: {
+    command: 'npm run preview',
+    url: 'http://127.0.0.1:4173',
+    reuseExistingServer: !process.env.CI,
+    timeout: 60_000,
+  },
+});

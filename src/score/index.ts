@@ -1,0 +1,3 @@
+export * from './strokeScore.ts';
+export * from './polyline.ts';
+export * from './roc.ts';
