@@ -33,6 +33,8 @@ export const MAX_GAP_SHARE_OF_CHORD = 0.3;
  * the ink is lost at a corner, no smoothness prior can know where the corner was.
  */
 export const MAX_GAP_TURN = (25 * Math.PI) / 180;
+/** Samples (0.5 px each) on either side of a gap that must also keep clear of other strokes. */
+const JUNCTION_MARGIN_SAMPLES = 12;
 /** Visible ink kept between two gaps of one stroke, px. */
 const GAP_SPACING = 10;
 
@@ -116,7 +118,7 @@ function placeGaps(
       const overlaps = gaps.some((q) =>
         (from - q.to) * line.step < GAP_SPACING && (q.from - to) * line.step < GAP_SPACING);
       if (overlaps) continue;
-      if (!centreIsClear(lines, radii, si, (from + to) >> 1)) continue;
+      if (!spanIsClear(lines, radii, si, from - JUNCTION_MARGIN_SAMPLES, to + JUNCTION_MARGIN_SAMPLES)) continue;
       if (turning(line, from - 6, to + 6) > MAX_GAP_TURN) continue;
       if (gapTotal + (to - from) * line.step > gapBudget) continue;
       gapTotal += (to - from) * line.step;
@@ -128,20 +130,27 @@ function placeGaps(
   return gaps;
 }
 
-/** True when no other stroke of the letter comes within both radii + 2 px of sample k. */
-function centreIsClear(lines: Centreline[], radii: Float64Array[], si: number, k: number): boolean {
-  const x = lines[si].xy[2 * k];
-  const y = lines[si].xy[2 * k + 1];
-  const rk = radii[si][k];
-  for (let o = 0; o < lines.length; o++) {
-    if (o === si) continue;
-    const { xy, count } = lines[o];
-    const ro = radii[o];
-    for (let j = 0; j < count; j++) {
-      const reach = rk + ro[j] + 2;
-      const dx = xy[2 * j] - x;
-      const dy = xy[2 * j + 1] - y;
-      if (dx * dx + dy * dy < reach * reach) return false;
+/**
+ * True when no other stroke of the letter comes within both radii + 4 px of samples
+ * a..b. A gap next to a junction is ambiguous even to a person (the pen could have
+ * turned onto the other stroke), so gaps keep clear of junctions.
+ */
+function spanIsClear(lines: Centreline[], radii: Float64Array[], si: number, a: number, b: number): boolean {
+  const own = lines[si];
+  for (let k = Math.max(0, a); k <= Math.min(own.count - 1, b); k++) {
+    const x = own.xy[2 * k];
+    const y = own.xy[2 * k + 1];
+    const rk = radii[si][k];
+    for (let o = 0; o < lines.length; o++) {
+      if (o === si) continue;
+      const { xy, count } = lines[o];
+      const ro = radii[o];
+      for (let j = 0; j < count; j++) {
+        const reach = rk + ro[j] + 4;
+        const dx = xy[2 * j] - x;
+        const dy = xy[2 * j + 1] - y;
+        if (dx * dx + dy * dy < reach * reach) return false;
+      }
     }
   }
   return true;

@@ -151,7 +151,7 @@ export function presenceRamp(m: number, model: ChordModel): number {
   return q < 0 ? 0 : q > 1 ? 1 : q;
 }
 
-/** Support: share of the pen chord [−r, r] on ink, 0..1. */
+/** Support: share of the pen chord [−r, r] on ink (the chord's mean evidence), 0..1. */
 export function chordSupport(p: ChordProfile, r: number): number {
   const s = p.between(-r, r) / (2 * r);
   return s < 0 ? 0 : s > 1 ? 1 : s;

@@ -40,7 +40,7 @@ export interface FollowRequest {
   margin?: number;
   /** Spacing of the refined samples, px (≤ 1). Default 1. */
   spacing?: number;
-  /** Support below which the pen counts as off ink. Default 0.35. */
+  /** Support below which the pen counts as off ink. Default 0.6. */
   supportThreshold?: number;
   /** Shortest reported restored span, px. Default 3. */
   minRestoredLength?: number;
@@ -120,10 +120,12 @@ export function followStroke(prep: PreparedInk, req: FollowRequest, control: Fol
     }
   }
   const t1 = performance.now();
+  if (control.shouldStop?.()) throw new FollowCancelled('the solve was cancelled.');
   const problem = buildLiftedProblem(ink, domains, ax, ay, {
     radiusMin, radiusMax, radiusStep: 0.5, maxTurn: 2, weights, chord,
   });
   const t2 = performance.now();
+  if (control.shouldStop?.()) throw new FollowCancelled('the solve was cancelled.');
   const solution = solveLifted(problem, prep.workspace, control.shouldStop);
   if (!solution) {
     if (control.shouldStop?.()) throw new FollowCancelled('the solve was cancelled.');
@@ -162,7 +164,7 @@ export function followStroke(prep: PreparedInk, req: FollowRequest, control: Fol
     stroke = refinePath(ink, px, py, pr, fixedAt, {
       weights, chord, radiusMin, radiusMax,
       spacing: Math.min(1, req.spacing ?? 1),
-      supportThreshold: req.supportThreshold ?? 0.35,
+      supportThreshold: req.supportThreshold ?? 0.6,
       minRestoredLength: req.minRestoredLength ?? 3,
     });
   }

@@ -319,8 +319,8 @@ export function moveCost(
 
 /**
  * A* over the lifted states. Returns the optimal state path, or undefined when the goal
- * cannot be reached inside the domains. `shouldStop` is polled every few thousand
- * settled states (for cancellation).
+ * cannot be reached inside the domains. `shouldStop` is polled every 1024 settled
+ * states (for cancellation).
  */
 export function solveLifted(p: LiftedProblem, ws: LiftedWorkspace, shouldStop?: () => boolean): LiftedSolution | undefined {
   const { stages, K, maxTurn, weights, turnCost, radii } = p;
@@ -358,7 +358,7 @@ export function solveLifted(p: LiftedProblem, ws: LiftedWorkspace, shouldStop?: 
     if (closed[id]) continue;
     closed[id] = 1;
     settled++;
-    if ((settled & 4095) === 0 && shouldStop && shouldStop()) return undefined;
+    if ((settled & 1023) === 0 && shouldStop && shouldStop()) return undefined;
     // Find the stage (ids are grouped by stage, and stages are few).
     if (id < st.offset || (stage < last && id >= stages[stage + 1].offset)) {
       stage = last;

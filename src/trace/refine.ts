@@ -16,7 +16,7 @@ export interface RefineOptions {
   radiusMax: number;
   /** Sample spacing, px (≤ 1). Default 1. */
   spacing: number;
-  /** Support below which a sample counts as unsupported by ink. Default 0.35. */
+  /** Support below which a sample counts as unsupported by ink. Default 0.6. */
   supportThreshold: number;
   /** Shortest run of unsupported samples reported as a restored span, px. Default 3. */
   minRestoredLength: number;
@@ -97,6 +97,69 @@ function smooth(w: Work, passes: number): void {
   }
 }
 
+/**
+ * Where the discrete path crosses a span without ink it runs straight along a lattice
+ * direction, up to a couple of px off the true course, and coordinate descent would
+ * straighten such a span only slowly. Each unsupported run is therefore first replaced
+ * by the cubic Hermite curve that joins the inked ends with their tangents (the
+ * small-deflection minimiser of bending energy), radii interpolated linearly.
+ */
+function bridgeUnsupported(ink: GrayImage, w: Work, options: RefineOptions): void {
+  const { x, y, r, fixed, n } = w;
+  const profile = new ChordProfile(options.radiusMax, options.chord);
+  const low = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    const a = i > 0 ? i - 1 : i;
+    const b = i < n - 1 ? i + 1 : i;
+    const l = Math.hypot(x[b] - x[a], y[b] - y[a]) || 1;
+    profile.sample(ink, x[i], y[i], (x[b] - x[a]) / l, (y[b] - y[a]) / l);
+    low[i] = chordSupport(profile, r[i]) < options.supportThreshold ? 1 : 0;
+  }
+  const reach = 5; // samples used for the tangent on either side
+  let i = 1;
+  while (i < n - 1) {
+    if (!low[i]) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j + 1 < n - 1 && low[j + 1]) j++;
+    const a = i - 1;
+    const b = j + 1;
+    let inner = false;
+    for (let k = i; k <= j; k++) if (fixed[k]) inner = true;
+    if (!inner && j - i + 1 >= 3) {
+      const a0 = Math.max(0, a - reach);
+      const b1 = Math.min(n - 1, b + reach);
+      let tax = x[a] - x[a0];
+      let tay = y[a] - y[a0];
+      let tbx = x[b1] - x[b];
+      let tby = y[b1] - y[b];
+      const la = Math.hypot(tax, tay) || 1;
+      const lb = Math.hypot(tbx, tby) || 1;
+      const L = Math.hypot(x[b] - x[a], y[b] - y[a]);
+      tax = (tax / la) * L;
+      tay = (tay / la) * L;
+      tbx = (tbx / lb) * L;
+      tby = (tby / lb) * L;
+      const xa = x[a], ya = y[a], xb = x[b], yb = y[b], ra = r[a], rb = r[b];
+      for (let k = i; k <= j; k++) {
+        const t = (k - a) / (b - a);
+        const t2 = t * t;
+        const t3 = t2 * t;
+        const h00 = 2 * t3 - 3 * t2 + 1;
+        const h10 = t3 - 2 * t2 + t;
+        const h01 = -2 * t3 + 3 * t2;
+        const h11 = t3 - t2;
+        x[k] = h00 * xa + h10 * tax + h01 * xb + h11 * tbx;
+        y[k] = h00 * ya + h10 * tay + h01 * yb + h11 * tby;
+        r[k] = ra + (rb - ra) * t;
+      }
+    }
+    i = j + 1;
+  }
+}
+
 export interface RefinedStroke {
   samples: StrokeSample[];
   restoredSpans: SampleSpan[];
@@ -110,6 +173,7 @@ export function refinePath(
   ink: GrayImage, px: number[], py: number[], pr: number[], fixedAt: number[], options: RefineOptions,
 ): RefinedStroke {
   const w = resample(px, py, pr, fixedAt, options.spacing);
+  bridgeUnsupported(ink, w, options);
   smooth(w, 3);
   const { x, y, r, fixed, n } = w;
   const { weights, chord } = options;
@@ -232,25 +296,43 @@ export function refinePath(
     }
   }
 
-  const samples: StrokeSample[] = new Array(n);
-  for (let i = 0; i < n; i++) {
-    profile.sample(ink, x[i], y[i], tx[i], ty[i]);
-    samples[i] = { x: x[i], y: y[i], r: r[i], support: chordSupport(profile, r[i]) };
+  // Moving samples along their normals changes their spacing: resample the refined
+  // line so that no step exceeds the spacing, anchors kept in place.
+  const fixedIdx: number[] = [];
+  for (let i = 0; i < n; i++) if (fixed[i]) fixedIdx.push(i);
+  const out = resample(Array.from(x), Array.from(y), Array.from(r), fixedIdx, options.spacing);
+  const samples: StrokeSample[] = new Array(out.n);
+  for (let i = 0; i < out.n; i++) {
+    const a = i > 0 ? i - 1 : i;
+    const b = i < out.n - 1 ? i + 1 : i;
+    const l = Math.hypot(out.x[b] - out.x[a], out.y[b] - out.y[a]) || 1;
+    profile.sample(ink, out.x[i], out.y[i], (out.x[b] - out.x[a]) / l, (out.y[b] - out.y[a]) / l);
+    samples[i] = { x: out.x[i], y: out.y[i], r: out.r[i], support: chordSupport(profile, out.r[i]) };
   }
   return { samples, restoredSpans: findRestoredSpans(samples, options.supportThreshold, options.minRestoredLength) };
 }
 
-/** Runs of samples with support below the threshold, at least minLength px long. */
+/**
+ * Runs of samples whose support, averaged with its two neighbours (against pixel
+ * noise), is below the threshold, at least minLength px long.
+ */
 export function findRestoredSpans(samples: StrokeSample[], threshold: number, minLength: number): SampleSpan[] {
   const spans: SampleSpan[] = [];
+  const n = samples.length;
+  const low = new Uint8Array(n);
+  for (let k = 0; k < n; k++) {
+    const a = samples[k > 0 ? k - 1 : k].support;
+    const b = samples[k < n - 1 ? k + 1 : k].support;
+    low[k] = (a + samples[k].support + b) / 3 < threshold ? 1 : 0;
+  }
   let i = 0;
-  while (i < samples.length) {
-    if (samples[i].support >= threshold) {
+  while (i < n) {
+    if (!low[i]) {
       i++;
       continue;
     }
     let j = i;
-    while (j + 1 < samples.length && samples[j + 1].support < threshold) j++;
+    while (j + 1 < n && low[j + 1]) j++;
     let len = 0;
     for (let k = i + 1; k <= j; k++) len += Math.hypot(samples[k].x - samples[k - 1].x, samples[k].y - samples[k - 1].y);
     if (len >= minLength) spans.push({ from: i, to: j });
