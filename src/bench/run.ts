@@ -31,7 +31,7 @@ export async function runBench(options: BenchOptions = {}): Promise<void> {
   log(`inkroute bench — ${new Date().toISOString()}`);
   log(`machine: ${cpus[0]?.model ?? 'unknown cpu'}, ${cpus.length} cores, ${(os.totalmem() / 2 ** 30).toFixed(1)} GiB, ` +
     `node ${process.version}, ${os.platform()} ${os.arch()}`);
-  log(`runs: ${runs} timed after 2 warm-up; times in ms (p50 = median)`);
+  log(`runs: ${runs} timed after warm-up (solves: ${quick ? 9 : 30}, over 3 strokes per length); times in ms (p50 = median)`);
   log('');
 
   // 1. Per-image precomputation on 1024 × 1024.
@@ -55,7 +55,7 @@ export async function runBench(options: BenchOptions = {}): Promise<void> {
       const fx = longStroke(L, 1024, seed);
       const prep = prepareInk(inkEvidence(fx.image));
       const req = { anchors: [fx.start, fx.end] };
-      const { ms: m, last } = timeRuns((): FollowResult => followStroke(prep, req), Math.ceil(runs / 3) + 1, 2);
+      const { ms: m, last } = timeRuns((): FollowResult => followStroke(prep, req), quick ? 3 : 10, 2);
       ms.push(...m);
       const s = last.stats;
       settled.push(s.settled);
@@ -88,6 +88,7 @@ export async function runBench(options: BenchOptions = {}): Promise<void> {
     }
     const rnd = createRandom(3);
     const read: number[] = [];
+    for (let i = 0; i < 50; i++) tree.pathTo(312 + rnd.next() * 399, 312 + rnd.next() * 399); // warm-up
     for (let i = 0; i < 300; i++) {
       const x = 312 + rnd.next() * 399;
       const y = 312 + rnd.next() * 399;

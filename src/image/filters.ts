@@ -40,21 +40,24 @@ export function gaussianBlur(img: GrayImage, sigma: number, out?: Float32Array):
       const x = i - r < 0 ? 0 : i - r >= w ? w - 1 : i - r;
       line[i] = data[row + x];
     }
+    const kl = k.length;
     for (let x = 0; x < w; x++) {
       let s = 0;
-      for (let t = 0; t < k.length; t++) s += k[t] * line[x + t];
+      for (let t = 0; t < kl; t++) s += k[t] * line[x + t];
       tmp[row + x] = s;
     }
   }
-  for (let x = 0; x < w; x++) {
-    for (let i = 0; i < h + 2 * r; i++) {
-      const y = i - r < 0 ? 0 : i - r >= h ? h - 1 : i - r;
-      line[i] = tmp[y * w + x];
-    }
-    for (let y = 0; y < h; y++) {
-      let s = 0;
-      for (let t = 0; t < k.length; t++) s += k[t] * line[y + t];
-      dst[y * w + x] = s;
+  // Vertical pass row by row (streams through memory instead of striding columns).
+  dst.fill(0);
+  for (let y = 0; y < h; y++) {
+    const row = y * w;
+    for (let t = 0; t < k.length; t++) {
+      let sy = y + t - r;
+      if (sy < 0) sy = 0;
+      else if (sy >= h) sy = h - 1;
+      const kt = k[t];
+      const src = sy * w;
+      for (let x = 0; x < w; x++) dst[row + x] += kt * tmp[src + x];
     }
   }
   return createGray(w, h, dst);

@@ -106,7 +106,7 @@ export function inkEvidence(image: GrayImage, options: InkOptions = {}): InkEvid
  * a subsample so it stays cheap on large images.
  */
 function robustSigma(signal: Float32Array): number {
-  const step = Math.max(1, Math.floor(signal.length / 200_000));
+  const step = Math.max(1, Math.floor(signal.length / 50_000));
   const diffs = new Float32Array(Math.floor((signal.length - 1) / step));
   for (let i = 0, p = 0; i < diffs.length; i++, p += step) diffs[i] = Math.abs(signal[p + 1] - signal[p]);
   diffs.sort();

@@ -86,13 +86,16 @@ export class ChordProfile {
    * pixel-centre convention, edge clamped (as sampleBilinear, inlined: this is the
    * solver's innermost loop).
    */
-  sample(ink: GrayImage, x: number, y: number, tx: number, ty: number): void {
+  sample(ink: GrayImage, x: number, y: number, tx: number, ty: number, extent = Infinity): void {
     const { half, h, e, f } = this;
     const { width: W, height: H, data } = ink;
     const nx = -ty * h;
     const ny = tx * h;
-    const J = 2 * half;
-    for (let j = 0; j <= J; j++) {
+    // Only the offsets |t| ≤ extent (+ one sample) when the caller needs no more.
+    const m = Math.min(half, Math.ceil(extent / h) + 1);
+    const j0 = half - m;
+    const J = half + m;
+    for (let j = j0; j <= J; j++) {
       let fx = x + nx * (j - half) - 0.5;
       let fy = y + ny * (j - half) - 0.5;
       if (fx < 0) fx = 0;
@@ -110,12 +113,13 @@ export class ChordProfile {
       const bot = data[r1 + i0] + (data[r1 + i1] - data[r1 + i0]) * ax;
       e[j] = top + (bot - top) * ay;
     }
-    f[0] = 0;
+    // Running integral from the first sampled offset; only differences are used.
+    f[j0] = 0;
     const hh = 0.5 * h;
-    for (let j = 1; j <= J; j++) f[j] = f[j - 1] + hh * (e[j - 1] + e[j]);
+    for (let j = j0 + 1; j <= J; j++) f[j] = f[j - 1] + hh * (e[j - 1] + e[j]);
   }
 
-  /** ∫ E from the chord's first sample to offset t (|t| within the sampled range). */
+  /** ∫ E from the first sampled offset to offset t (|t| within the sampled range). */
   integral(t: number): number {
     const { half, h, e, f } = this;
     const u = t / h + half;

@@ -34,7 +34,7 @@ export interface FollowRequest {
    * path; 'box' is the whole rectangle around the anchors widened by `margin`.
    */
   domain?: 'tube' | 'box';
-  /** Half-width of the search tube, px. Default 7. */
+  /** Half-width of the search tube, px. Default 5. */
   tubeRadius?: number;
   /** Margin of the first path's search box (and of a 'box' domain), px. Default 24. */
   margin?: number;
@@ -103,7 +103,7 @@ export function followStroke(prep: PreparedInk, req: FollowRequest, control: Fol
   const weights: Weights = { ...DEFAULT_WEIGHTS, ...req.weights };
   const chord: ChordModel = { ...DEFAULT_CHORD, ...req.chord };
   const [radiusMin, radiusMax] = req.radius ?? DEFAULT_RADIUS;
-  const tubeRadius = req.tubeRadius ?? 7;
+  const tubeRadius = req.tubeRadius ?? 5;
   const margin = req.margin ?? 24;
   const ax = req.anchors.map((a) => Math.floor(a.x));
   const ay = req.anchors.map((a) => Math.floor(a.y));

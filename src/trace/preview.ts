@@ -50,6 +50,7 @@ export class PreviewTree {
   private readonly turn: Float64Array;
   private readonly prep: PreparedInk;
   private readonly radius: [number, number];
+  private readonly profile: ChordProfile;
 
   constructor(prep: PreparedInk, start: Point, options: PreviewOptions = {}) {
     const ink = prep.evidence;
@@ -57,6 +58,7 @@ export class PreviewTree {
     const weights = { ...DEFAULT_WEIGHTS, ...options.weights };
     this.prep = prep;
     this.radius = options.radius ?? DEFAULT_RADIUS;
+    this.profile = new ChordProfile(this.radius[1], DEFAULT_CHORD);
     const sx = Math.floor(start.x);
     const sy = Math.floor(start.y);
     this.x0 = Math.max(0, sx - ext);
@@ -214,7 +216,7 @@ export class PreviewTree {
       }
     }
     const [rmin, rmax] = this.radius;
-    const profile = new ChordProfile(rmax, DEFAULT_CHORD);
+    const profile = this.profile;
     const out: StrokeSample[] = new Array(n);
     for (let i = 0; i < n; i++) {
       const a = Math.max(0, i - 1);

@@ -201,9 +201,10 @@ export function refinePath(
   const sabs = (v: number): number => Math.sqrt(v * v + EPS_R * EPS_R);
   const stepLen = (i: number): number => Math.hypot(x[i] - x[i - 1], y[i] - y[i - 1]);
   /** Adherence (and length) term of step i with the current state. */
+  const reach = options.radiusMax > 0 ? chord.outerWidth + 0.5 : 0;
   const adhTerm = (i: number): number => {
     if (i <= 0 || i >= n) return 0;
-    profile.sample(ink, x[i], y[i], tx[i], ty[i]);
+    profile.sample(ink, x[i], y[i], tx[i], ty[i], Math.max(r[i], chord.coreRadius) + reach);
     return stepLen(i) * (lam + A * chordAdherence(profile, r[i], chord, chordPresence(profile, chord)));
   };
   const cachedAdh = (i: number): number => {
@@ -244,7 +245,8 @@ export function refinePath(
         const y0 = y[i];
         let best = localCached(i);
         let bestOff = 0;
-        for (const off of [-sp, sp]) {
+        for (let side = -1; side <= 1; side += 2) {
+          const off = side * sp;
           x[i] = x0 + nx * off;
           y[i] = y0 + ny * off;
           tangent(i - 1);
@@ -270,7 +272,7 @@ export function refinePath(
       // Radii: the chord profile does not depend on r, so sample it once per sample.
       const sr = radSteps[level];
       for (let i = 1; i < n; i++) {
-        profile.sample(ink, x[i], y[i], tx[i], ty[i]);
+        profile.sample(ink, x[i], y[i], tx[i], ty[i], Math.max(r[i] + sr, chord.coreRadius) + reach);
         const qi = chordPresence(profile, chord);
         const li = stepLen(i) * A;
         const cost = (rv: number): number =>
@@ -278,7 +280,8 @@ export function refinePath(
         const ri = r[i];
         let best = cost(ri);
         let bestR = ri;
-        for (const rv of [ri - sr, ri + sr]) {
+        for (let side = -1; side <= 1; side += 2) {
+          const rv = ri + side * sr;
           if (rv < options.radiusMin || rv > options.radiusMax) continue;
           const e = cost(rv);
           if (e < best - 1e-12) {
