@@ -1,0 +1,4 @@
+export * from './model.ts';
+export * from './schema.ts';
+export * from './projectFile.ts';
+export * from './rules.ts';
