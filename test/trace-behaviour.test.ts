@@ -91,6 +91,22 @@ describe('followStroke behaviour', () => {
     }
   });
 
+  it('keeps a pinned pen radius at its anchor exactly', () => {
+    const line = sampleCurve((t) => ({ x: 10 + 100 * t, y: 30, r: 3 }), 400);
+    const ink = addNoise(renderCoverage(120, 60, [line]), 8, 0.03);
+    const prep = prepareInk(ink);
+    const free = followStroke(prep, { anchors: [line[0], line[line.length - 1]] });
+    expect(Math.abs(free.samples[0].r - 3)).toBeLessThan(0.5);
+    const pinned = followStroke(prep, { anchors: [{ ...line[0], r: 2 }, { x: 60.5, y: 30.2, r: 4.2 }, line[line.length - 1]] });
+    expect(pinned.samples[0].r).toBe(2);
+    const mid = pinned.samples.find((s) => Math.hypot(s.x - 60.5, s.y - 30.2) < 1e-9)!;
+    expect(mid.r).toBe(4.2);
+    // Away from the pins the measured width comes back.
+    const far = pinned.samples.filter((s) => s.x > 85 && s.x < 100);
+    for (const s of far) expect(Math.abs(s.r - 3)).toBeLessThan(0.5);
+    expect(() => followStroke(prep, { anchors: [{ ...line[0], r: 9 }, line[line.length - 1]] })).toThrow(/pinned radius/);
+  });
+
   it('rejects bad requests with a plain message', () => {
     const prep = prepareInk(createGray(50, 40));
     const bad = (req: Parameters<typeof followStroke>[1], text: RegExp) =>

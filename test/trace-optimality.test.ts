@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { createGray } from '../src/image/gray.ts';
 import { createRandom } from '../src/util/random.ts';
 import { followStroke, prepareInk, type FollowRequest } from '../src/trace/index.ts';
-import { pathCost, type LiftedProblem, type LiftedSolution } from '../src/trace/lifted.ts';
+import { decodeState, pathCost, type LiftedProblem, type LiftedSolution } from '../src/trace/lifted.ts';
 import { referenceShortestPath } from './helpers/lifted-reference.ts';
 import { renderCoverage, sampleCurve } from './helpers/render.ts';
 
@@ -49,6 +49,21 @@ describe('lifted solver optimality against ngraph.path (Dijkstra)', () => {
     expect(problem.stages.length).toBe(2);
     const ref = referenceShortestPath(problem);
     expect(Math.abs(solution.cost.total - ref.cost) / ref.cost).toBeLessThan(1e-9);
+  });
+
+  it('pinned radii at the anchors: still the exact optimum of the restricted graph', () => {
+    const curve = sampleCurve((t) => ({ x: 5 + 30 * t, y: 6 + 24 * t, r: 2.5 }), 400);
+    const ink = noisy(renderCoverage(40, 36, [curve]), 9, 0.05);
+    const { problem, solution } = solveAndInspect(ink, {
+      anchors: [{ x: 5.5, y: 6.5, r: 1.5 }, { x: 20.5, y: 18.5 }, { x: 35.2, y: 30.4, r: 3 }],
+      radius: [1.5, 3], domain: 'box', margin: 3,
+    });
+    expect(Array.from(problem.pinned)).toEqual([0, -1, 3]);
+    const ref = referenceShortestPath(problem);
+    expect(Math.abs(solution.cost.total - ref.cost) / ref.cost).toBeLessThan(1e-9);
+    const ks = Array.from(solution.states, (id) => decodeState(problem, id).k);
+    expect(ks[0]).toBe(0);
+    expect(ks[ks.length - 1]).toBe(3);
   });
 
   it('the tube domain solved by A* equals Dijkstra on the same tube', () => {

@@ -21,8 +21,11 @@ export class FollowError extends Error {
 }
 
 export interface FollowRequest {
-  /** Start, intermediate anchors in order, end; image px. At least two. */
-  anchors: Point[];
+  /**
+   * Start, intermediate anchors in order, end; image px. At least two. An anchor's `r`
+   * pins the pen radius there (px, within the radius range).
+   */
+  anchors: Array<Point & { r?: number }>;
   /** Pen radius range [min, max] in px. Default [1.5, 6]. */
   radius?: [number, number];
   /** Weights of the energy's terms; missing ones take DEFAULT_WEIGHTS. */
@@ -76,8 +79,12 @@ export class FollowCancelled extends Error {
 
 export function validateRequest(width: number, height: number, req: FollowRequest): void {
   if (!Array.isArray(req.anchors) || req.anchors.length < 2) throw new FollowError('a stroke needs a start and an end point.');
+  const [rlo, rhi] = req.radius ?? DEFAULT_RADIUS;
   for (const a of req.anchors) {
     if (!Number.isFinite(a.x) || !Number.isFinite(a.y)) throw new FollowError('a point has a coordinate that is not a number.');
+    if (a.r !== undefined && !(a.r >= rlo && a.r <= rhi)) {
+      throw new FollowError(`a pinned radius of ${a.r} px lies outside the radius range ${rlo}–${rhi} px.`);
+    }
     if (a.x < 0 || a.y < 0 || a.x >= width || a.y >= height) {
       throw new FollowError(`the point ${a.x},${a.y} lies outside the image (${width}×${height} px).`);
     }
@@ -121,8 +128,11 @@ export function followStroke(prep: PreparedInk, req: FollowRequest, control: Fol
   }
   const t1 = performance.now();
   if (control.shouldStop?.()) throw new FollowCancelled('the solve was cancelled.');
+  const radiusStep = 0.5;
+  const pinnedLevels = req.anchors.map((a) => (a.r === undefined ? -1
+    : Math.max(0, Math.min(Math.floor((radiusMax - radiusMin) / radiusStep + 1e-9), Math.round((a.r - radiusMin) / radiusStep)))));
   const problem = buildLiftedProblem(ink, domains, ax, ay, {
-    radiusMin, radiusMax, radiusStep: 0.5, maxTurn: 2, weights, chord,
+    radiusMin, radiusMax, radiusStep, maxTurn: 2, weights, chord, pinnedLevels,
   });
   const t2 = performance.now();
   if (control.shouldStop?.()) throw new FollowCancelled('the solve was cancelled.');
@@ -153,16 +163,20 @@ export function followStroke(prep: PreparedInk, req: FollowRequest, control: Fol
   }
   fixedAt.push(px.length - 1);
   // The anchors' exact sub-pixel positions replace their pixel centres.
+  const pinnedR: (number | undefined)[] = [];
   for (let a = 0; a < fixedAt.length; a++) {
     px[fixedAt[a]] = req.anchors[a].x;
     py[fixedAt[a]] = req.anchors[a].y;
+    const r = req.anchors[a].r;
+    pinnedR.push(r === undefined ? undefined : Math.max(radiusMin, Math.min(radiusMax, r)));
+    if (r !== undefined) pr[fixedAt[a]] = pinnedR[a]!;
   }
   let stroke;
   if (req.discreteOnly) {
     stroke = { samples: px.map((x, i) => ({ x, y: py[i], r: pr[i], support: NaN })), restoredSpans: [] };
   } else {
     stroke = refinePath(ink, px, py, pr, fixedAt, {
-      weights, chord, radiusMin, radiusMax,
+      weights, chord, radiusMin, radiusMax, pinnedR,
       spacing: Math.min(1, req.spacing ?? 1),
       supportThreshold: req.supportThreshold ?? 0.6,
       minRestoredLength: req.minRestoredLength ?? 3,

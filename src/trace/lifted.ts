@@ -31,6 +31,11 @@ export interface LiftedOptions {
   maxTurn: number;
   weights: Weights;
   chord: ChordModel;
+  /**
+   * Per anchor, the radius level the pen must have there (a radius pinned by the user),
+   * or −1 for free. Missing: all free.
+   */
+  pinnedLevels?: ArrayLike<number>;
 }
 
 export interface Stage {
@@ -54,6 +59,8 @@ export interface LiftedProblem {
   weights: Weights;
   /** C · Δθ² / ℓ̄ for each (d, d') pair, 16 × 16. */
   turnCost: Float64Array;
+  /** Radius level pinned at each anchor (stages + 1 entries), −1 where free. */
+  pinned: Int32Array;
 }
 
 export interface LiftedSolution {
@@ -111,7 +118,9 @@ export function buildLiftedProblem(
     st.h = relaxedCostToGo(st, K, options.maxTurn, turnCost, weights, carry);
     carry = st.h.subarray(st.startCell * DIRECTIONS, (st.startCell + 1) * DIRECTIONS);
   }
-  return { stages, radii, K, totalStates: offset, maxTurn: options.maxTurn, weights, turnCost };
+  const pinned = new Int32Array(domains.length + 1).fill(-1);
+  if (options.pinnedLevels) for (let a = 0; a < pinned.length; a++) pinned[a] = options.pinnedLevels[a] ?? -1;
+  return { stages, radii, K, totalStates: offset, maxTurn: options.maxTurn, weights, turnCost, pinned };
 }
 
 /**
@@ -269,13 +278,21 @@ export function encodeState(p: LiftedProblem, stage: number, cell: number, d: nu
 /** Ids of the start states (all cost 0). */
 export function startStates(p: LiftedProblem): number[] {
   const ids: number[] = [];
-  for (let d = 0; d < DIRECTIONS; d++) for (let k = 0; k < p.K; k++) ids.push(encodeState(p, 0, p.stages[0].startCell, d, k));
+  for (let d = 0; d < DIRECTIONS; d++) {
+    for (let k = 0; k < p.K; k++) if (levelAllowed(p, 0, k)) ids.push(encodeState(p, 0, p.stages[0].startCell, d, k));
+  }
   return ids;
+}
+
+/** Whether radius level k is allowed at anchor a (free, or the pinned level). */
+export function levelAllowed(p: LiftedProblem, a: number, k: number): boolean {
+  return p.pinned[a] < 0 || p.pinned[a] === k;
 }
 
 export function isGoal(p: LiftedProblem, id: number): boolean {
   const s = decodeState(p, id);
-  return s.stage === p.stages.length - 1 && s.cell === p.stages[s.stage].goalCell;
+  const last = p.stages.length - 1;
+  return s.stage === last && s.cell === p.stages[s.stage].goalCell && levelAllowed(p, last + 1, s.k);
 }
 
 /**
@@ -286,7 +303,8 @@ export function forEachMove(p: LiftedProblem, id: number, visit: (to: number, co
   const s = decodeState(p, id);
   const st = p.stages[s.stage];
   if (s.cell === st.goalCell) {
-    if (s.stage + 1 < p.stages.length) {
+    // The end of a stage moves only into the next stage, with the pinned radius if any.
+    if (s.stage + 1 < p.stages.length && levelAllowed(p, s.stage + 1, s.k)) {
       const next = p.stages[s.stage + 1];
       visit(encodeState(p, s.stage + 1, next.startCell, s.d, s.k), 0);
     }
@@ -340,8 +358,12 @@ export function solveLifted(p: LiftedProblem, ws: LiftedWorkspace, shouldStop?: 
     }
   }
   const st0 = stages[0];
+  const pinned = p.pinned;
+  let pushed = 0;
   for (let d = 0; d < DIRECTIONS; d++) {
     for (let k = 0; k < K; k++) {
+      if (pinned[0] >= 0 && pinned[0] !== k) continue;
+      pushed++;
       const id = st0.offset + (st0.startCell * DIRECTIONS + d) * K + k;
       g[id] = 0;
       parent[id] = -1;
@@ -349,7 +371,6 @@ export function solveLifted(p: LiftedProblem, ws: LiftedWorkspace, shouldStop?: 
     }
   }
   let settled = 0;
-  let pushed = DIRECTIONS * K;
   let goal = -1;
   let stage = 0;
   let st = st0;
@@ -372,6 +393,8 @@ export function solveLifted(p: LiftedProblem, ws: LiftedWorkspace, shouldStop?: 
     const cell = t >> 4;
     const gid = g[id];
     if (cell === st.goalCell) {
+      // Arriving with another radius than the one pinned here is a dead end.
+      if (pinned[stage + 1] >= 0 && pinned[stage + 1] !== k) continue;
       if (stage === last) {
         goal = id;
         break;

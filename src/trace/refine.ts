@@ -20,6 +20,8 @@ export interface RefineOptions {
   supportThreshold: number;
   /** Shortest run of unsupported samples reported as a restored span, px. Default 3. */
   minRestoredLength: number;
+  /** Per anchor (in fixedAt order), a pinned pen radius, px; undefined where free. */
+  pinnedR?: (number | undefined)[];
 }
 
 /** ε of the smoothed |Δr|, px. */
@@ -173,6 +175,15 @@ export function refinePath(
   ink: GrayImage, px: number[], py: number[], pr: number[], fixedAt: number[], options: RefineOptions,
 ): RefinedStroke {
   const w = resample(px, py, pr, fixedAt, options.spacing);
+  // Which resampled samples carry a pinned radius (fixed samples come in anchor order).
+  const pinR = new Float64Array(w.n).fill(NaN);
+  if (options.pinnedR) {
+    for (let i = 0, a = 0; i < w.n; i++) {
+      if (!w.fixed[i]) continue;
+      const r = options.pinnedR[a++];
+      if (r !== undefined) pinR[i] = r;
+    }
+  }
   bridgeUnsupported(ink, w, options);
   smooth(w, 3);
   const { x, y, r, fixed, n } = w;
@@ -272,6 +283,10 @@ export function refinePath(
       // Radii: the chord profile does not depend on r, so sample it once per sample.
       const sr = radSteps[level];
       for (let i = 1; i < n; i++) {
+        if (!Number.isNaN(pinR[i])) {
+          r[i] = pinR[i];
+          continue;
+        }
         profile.sample(ink, x[i], y[i], tx[i], ty[i], Math.max(r[i] + sr, chord.coreRadius) + reach);
         const qi = chordPresence(profile, chord);
         const li = stepLen(i) * A;
@@ -294,8 +309,8 @@ export function refinePath(
           adhCache[i] = NaN;
         }
       }
-      // Step 0 has no adherence term of its own: its radius follows step 1.
-      r[0] = r[n > 1 ? 1 : 0];
+      // Step 0 has no adherence term of its own: its radius follows step 1 unless pinned.
+      r[0] = Number.isNaN(pinR[0]) ? r[n > 1 ? 1 : 0] : pinR[0];
     }
   }
 
