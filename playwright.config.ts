@@ -2,9 +2,13 @@ import { defineConfig } from '@playwright/test';
 
 // Debian's Chromium: the test tool's own browser download does not work on these machines.
 const CHROMIUM = process.env.INKROUTE_CHROMIUM ?? '/usr/bin/chromium';
+// Speed figures live in e2e/bench and run with npm run bench:e2e, not with npm test.
+const BENCH = process.env.INKROUTE_E2E_BENCH === '1';
 
 export default defineConfig({
   testDir: 'e2e',
+  testIgnore: BENCH ? [] : ['**/bench/**'],
+  testMatch: BENCH ? ['bench/**/*.spec.ts'] : ['**/*.spec.ts'],
   // A folder of its own: Playwright empties its output folder, and the unit report sits beside it.
   outputDir: 'test-results/e2e',
   fullyParallel: true,
