@@ -98,14 +98,15 @@ describe('autosave', () => {
   it('coalesces a burst of changes into one write, holding the last state', async () => {
     const { db, puts } = countingDb();
     const store = loadedStore();
-    const a = autosave(store, db, 300);
+    // A delay long against the burst (~150 ms), so a loaded machine cannot split it.
+    const a = autosave(store, db, 1500);
     for (let i = 0; i < 30; i++) store.getState().change((p) => addStroke(p, stroke(`s${i}`, i)));
     // And a few more spread over the same window.
     for (let i = 0; i < 5; i++) {
       await sleep(30);
       store.getState().change((p) => setHidden(p, [`s${i}`], true));
     }
-    await until(async () => a.writes(), (n) => n > 0);
+    await until(async () => a.writes(), (n) => n > 0, 6000);
     await sleep(400);
     expect(a.writes()).toBe(1);
     expect(puts.get(WORK_KEY)).toBe(1);
@@ -119,7 +120,7 @@ describe('autosave', () => {
     const a = autosave(store, db, 100);
     store.getState().change((p) => addStroke(p, stroke('a', 1)));
     const t0 = Date.now();
-    while (Date.now() - t0 < 450) {
+    while (Date.now() - t0 < 900) { // about 9 delays: at least 3 writes even on a loaded machine
       store.getState().change((p) => updateStroke(p, 'a', { hidden: !p.strokes.a.hidden }));
       await sleep(20);
     }
