@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { createGray } from '../src/image/gray.ts';
 import { FollowCancelled, FollowError, followStroke, prepareInk, startPreview } from '../src/trace/index.ts';
 import { createRandom } from '../src/util/random.ts';
-import { renderCoverage, sampleCurve, type PenPoint } from './helpers/render.ts';
+import { distToPolyline, renderCoverage, sampleCurve, type PenPoint } from './helpers/render.ts';
 
 function addNoise(img: ReturnType<typeof createGray>, seed: number, sigma: number) {
   const rnd = createRandom(seed);
@@ -17,19 +17,7 @@ function addNoise(img: ReturnType<typeof createGray>, seed: number, sigma: numbe
   return img;
 }
 
-/** Distance from (x, y) to the polyline through pts. */
-function distTo(pts: PenPoint[], x: number, y: number): number {
-  let best = Infinity;
-  for (let i = 1; i < pts.length; i++) {
-    const a = pts[i - 1];
-    const b = pts[i];
-    const vx = b.x - a.x;
-    const vy = b.y - a.y;
-    const t = Math.max(0, Math.min(1, ((x - a.x) * vx + (y - a.y) * vy) / (vx * vx + vy * vy || 1)));
-    best = Math.min(best, Math.hypot(a.x + t * vx - x, a.y + t * vy - y));
-  }
-  return best;
-}
+const distTo = (pts: PenPoint[], x: number, y: number): number => distToPolyline(pts, x, y);
 
 describe('followStroke behaviour', () => {
   it('carries on across a 30 px abrasion gap with steady width and direction, and reports it restored', () => {

@@ -10,7 +10,7 @@ import { EngineClient } from '../src/worker/client.ts';
 import { EngineHost } from '../src/worker/host.ts';
 import { createLoopback } from '../src/worker/loopback.ts';
 import type { EngineReply, EngineRequest } from '../src/worker/protocol.ts';
-import { renderCoverage, sampleCurve, type PenPoint } from './helpers/render.ts';
+import { distToPolyline, renderCoverage, sampleCurve, type PenPoint } from './helpers/render.ts';
 
 const W = 220;
 const H = 140;
@@ -31,21 +31,7 @@ function luma(stroke: PenPoint[]): Float32Array {
 
 /** Mean distance of a truth centreline's points to the result's polyline, px. */
 function meanDistance(truth: PenPoint[], result: { x: number; y: number }[]): number {
-  let sum = 0;
-  for (const p of truth) {
-    let best = Infinity;
-    for (let i = 1; i < result.length; i++) {
-      const a = result[i - 1];
-      const b = result[i];
-      const dx = b.x - a.x;
-      const dy = b.y - a.y;
-      const l2 = dx * dx + dy * dy || 1;
-      const t = Math.max(0, Math.min(1, ((p.x - a.x) * dx + (p.y - a.y) * dy) / l2));
-      best = Math.min(best, Math.hypot(a.x + t * dx - p.x, a.y + t * dy - p.y));
-    }
-    sum += best;
-  }
-  return sum / truth.length;
+  return truth.reduce((sum, p) => sum + distToPolyline(result, p.x, p.y), 0) / truth.length;
 }
 
 /** A host whose replies are collected in order. */

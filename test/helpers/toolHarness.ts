@@ -37,19 +37,7 @@ export function renderLuma(seed = 7): Float32Array {
   return luma;
 }
 
-/** Distance from (x, y) to the polyline through `pts`, px. */
-export function distToPolyline(pts: readonly { x: number; y: number }[], x: number, y: number): number {
-  let best = Infinity;
-  for (let i = 1; i < pts.length; i++) {
-    const a = pts[i - 1];
-    const b = pts[i];
-    const vx = b.x - a.x;
-    const vy = b.y - a.y;
-    const t = Math.max(0, Math.min(1, ((x - a.x) * vx + (y - a.y) * vy) / (vx * vx + vy * vy || 1)));
-    best = Math.min(best, Math.hypot(a.x + t * vx - x, a.y + t * vy - y));
-  }
-  return best;
-}
+export { distToPolyline } from './render.ts';
 
 export interface PointerOptions {
   shift?: boolean;
