@@ -44,13 +44,16 @@ async function layerPixels(page: Page, layer: string, at: { x: number; y: number
     let maxAlpha = 0;
     let slate = 0;
     let dark = 0;
+    let at70 = 0;
     for (let i = 0; i < d.length; i += 4) {
       maxAlpha = Math.max(maxAlpha, d[i + 3]);
       // The restored colour #6b7280 (premultiplied edges make the dashes a little lighter or darker).
       if (d[i + 3] > 100 && Math.abs(d[i] - 0x6b) < 30 && Math.abs(d[i + 1] - 0x72) < 30 && Math.abs(d[i + 2] - 0x80) < 30) slate++;
-      if (d[i + 3] > 200 && d[i] < 60 && d[i + 1] < 60 && d[i + 2] < 60) dark++;
+      if (d[i + 3] > 100 && d[i] < 60 && d[i + 1] < 60 && d[i + 2] < 60) dark++;
+      // Ink is drawn at 70 %: alpha 0.7 × 255.
+      if (Math.abs(d[i + 3] - 0.7 * 255) <= 3) at70++;
     }
-    return { maxAlpha, slate, dark, pixels: n * n };
+    return { maxAlpha, slate, dark, at70, pixels: n * n };
   }, [layer, s.x, s.y, radius] as const);
 }
 
@@ -90,13 +93,14 @@ test('traces demo strokes from their true endpoints within 1 px, and marks a res
   // Inside the pen in the gap: nothing in the strokes layer (no black fill) …
   const inside = await layerPixels(page, 'strokes', at, Math.max(1, at.r * zoom * 0.6));
   expect(inside.maxAlpha).toBe(0);
-  // … and the dashed slate outline on the marks layer around it.
-  const around = await layerPixels(page, 'marks', at, (at.r + 2) * zoom + 2);
+  // … and the dashed slate outline around it, on the same layer.
+  const around = await layerPixels(page, 'strokes', at, (at.r + 2) * zoom + 2);
   expect(around.slate).toBeGreaterThan(3);
-  // On visible ink of the same stroke the strokes layer is solid ink black.
+  // On visible ink of the same stroke the strokes layer is ink black at 70 %, evenly.
   const inked = gapTrace.samples[5];
   const ink = await layerPixels(page, 'strokes', inked, Math.max(1, inked.r * zoom * 0.5));
   expect(ink.dark).toBe(ink.pixels);
+  expect(ink.at70).toBe(ink.pixels);
   console.log(`restored span in the gap of ${GAP_STROKE}: strokes-layer alpha ${inside.maxAlpha} inside the pen, ${around.slate} slate outline px around it`);
   await page.screenshot({ path: 'test-results/e2e/restored-span.png' });
   expect(errors).toEqual([]);

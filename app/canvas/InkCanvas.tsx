@@ -3,8 +3,9 @@
  * whose sceneFunc draws straight into the layer's context (draw.ts):
  *   photo    the current surface's first band, from its pyramid, only what is on screen
  *   overlay  the ink evidence in amber, at the chosen opacity
- *   strokes  the inked bodies in ink black; the layer is shown at 70 %, so overlaps do not darken
- *   marks    restored spans, selection, anchors, ductus arrows
+ *   strokes  the inked bodies in ink black, brought to 70 % as a whole (overlaps do not
+ *            darken), and the restored spans' dashed slate outlines
+ *   marks    selection, anchors, ductus arrows
  *   live     the Follow preview and pending anchors (redrawn alone as the pointer moves)
  * The layers redraw from store subscriptions, not React renders, and only those a
  * change touches; Konva batches each to the next animation frame, except the live layer,
@@ -17,7 +18,6 @@ import { Layer, Shape, Stage } from 'react-konva';
 import { getEngine } from '../engine/instance.ts';
 import type { EditorState } from '../store/store.ts';
 import { editorStore, useEditor } from '../store/useEditor.ts';
-import { INK_OPACITY } from './colours.ts';
 import { drawImageLayer, drawLiveLayer, drawMarkLayer, drawStrokeLayer, type Frame } from './draw.ts';
 import { followProjectImages, imageEntry, subscribeImages } from './images.ts';
 import { attachPointer } from './pointer.ts';
@@ -37,7 +37,7 @@ function frame(): Frame {
 function timed(name: LayerName, ctx: Konva.Context, draw: (c: CanvasRenderingContext2D) => void): void {
   const t0 = performance.now();
   const c = ctx._context;
-  // Layer opacity is applied to the layer's canvas as a whole (CSS), never per shape.
+  // Opacity belongs to whole layers (the overlay's CSS opacity, the strokes' own pass), never to a shape.
   c.globalAlpha = 1;
   draw(c);
   probe.drawMs[name] = performance.now() - t0;
@@ -48,6 +48,11 @@ function hasLive(s: EditorState): boolean {
   return (s.preview?.length ?? 0) > 0 || s.pending.length > 0;
 }
 
+/** Whether the marks layer may have anything to show: a selection, Refine's anchors, the ductus. */
+function hasMarks(s: EditorState): boolean {
+  return s.selection.length > 0 || s.tool === 'refine' || s.showDuctus;
+}
+
 export function InkCanvas() {
   const wrap = useRef<HTMLDivElement>(null);
   const layers = useRef<Partial<Record<LayerName, Konva.Layer | null>>>({});
@@ -56,6 +61,7 @@ export function InkCanvas() {
   const overlayOn = useEditor((s) => s.overlay);
   const overlayOpacity = useEditor((s) => s.overlayOpacity);
   const liveOn = useEditor(hasLive);
+  const marksOn = useEditor(hasMarks);
   const hasPhoto = useRef(false);
 
   const setLayer = (name: LayerName, l: Konva.Layer | null) => {
@@ -63,7 +69,6 @@ export function InkCanvas() {
     const c = l?.getNativeCanvasElement();
     if (!c) return;
     c.dataset.layer = name;
-    if (name === 'strokes') c.style.opacity = String(INK_OPACITY);
     if (name === 'overlay') c.style.opacity = String(editorStore.getState().overlayOpacity);
   };
 
@@ -93,6 +98,9 @@ export function InkCanvas() {
   useEffect(() => {
     if (liveOn) layers.current.live?.draw();
   }, [liveOn]);
+  useEffect(() => {
+    if (marksOn) layers.current.marks?.draw();
+  }, [marksOn]);
 
   useEffect(() => {
     const overlay = layers.current.overlay?.getNativeCanvasElement();
@@ -121,8 +129,9 @@ export function InkCanvas() {
     const unsubscribe = editorStore.subscribe((s, prev) => {
       if (s.zoom !== prev.zoom || s.panX !== prev.panX || s.panY !== prev.panY) {
         // Empty layers are hidden and left alone: every canvas redrawn costs the browser a copy and a blend.
-        redraw('photo', 'strokes', 'marks');
+        redraw('photo', 'strokes');
         if (s.overlay) redraw('overlay');
+        if (hasMarks(s)) redraw('marks');
         if (hasLive(s)) redraw('live');
         return;
       }
@@ -178,7 +187,7 @@ export function InkCanvas() {
           {layer('photo', photoScene)}
           {layer('overlay', overlayScene, overlayOn)}
           {layer('strokes', strokeScene)}
-          {layer('marks', markScene)}
+          {layer('marks', markScene, marksOn)}
           {layer('live', liveScene, liveOn)}
         </Stage>
       )}

@@ -7,7 +7,7 @@ import type { Anchor, Project, StrokeDoc } from '../../src/doc/model.ts';
 import type { StrokeSample } from '../../src/trace/types.ts';
 import type { EditorState } from '../store/store.ts';
 import type { AnchorHit } from '../tools/types.ts';
-import { HALO, INK, RESTORED, SELECTION } from './colours.ts';
+import { HALO, INK, INK_OPACITY, RESTORED, SELECTION } from './colours.ts';
 import { addOutline, addPenUnion, allIndices, drawnAsLine, geometryOf, inkLinePath, inkPath, lodFor, restoredPath, type StrokeGeometry } from './geometry.ts';
 import { TileCache } from './tiles.ts';
 import { drawPyramid, type Pyramid } from './pyramid.ts';
@@ -109,9 +109,26 @@ function tileFrame(view: { zoom: number; panX: number; panY: number }, width: nu
   return { state: { ...currentFrame!.state, ...view }, width, height, dpr: 1 };
 }
 
-/** Tiles of the two layers whose cost grows with the number of strokes on screen. */
-const inkTiles = new TileCache((ctx, view, w, h) => paintInk(ctx, tileFrame(view, w, h)));
-const restoredTiles = new TileCache((ctx, view, w, h) => paintRestored(ctx, tileFrame(view, w, h)));
+/**
+ * The strokes layer as the person sees it: the inked bodies in opaque ink black, brought
+ * to 70 % as a whole (so overlaps do not darken, as a layer's opacity would), then the
+ * restored spans' dashed outlines at full strength on top.
+ */
+function paintStrokes(ctx: CanvasRenderingContext2D, f: Frame): void {
+  ctx.save();
+  paintInk(ctx, f);
+  ctx.restore();
+  ctx.save();
+  ctx.setTransform(1, 0, 0, 1, 0, 0);
+  ctx.globalCompositeOperation = 'destination-in';
+  ctx.fillStyle = `rgba(0, 0, 0, ${INK_OPACITY})`;
+  ctx.fillRect(0, 0, ctx.canvas.width, ctx.canvas.height);
+  ctx.restore();
+  paintRestored(ctx, f);
+}
+
+/** Tiles of the strokes layer, whose cost grows with the number of strokes on screen. */
+const strokeTiles = new TileCache((ctx, view, w, h) => paintStrokes(ctx, tileFrame(view, w, h)));
 
 /** Draws a layer from its tiles when zoomed out to full size or less; false when it must be drawn directly. */
 function fromTiles(ctx: CanvasRenderingContext2D, f: Frame, tiles: TileCache): boolean {
@@ -123,9 +140,9 @@ function fromTiles(ctx: CanvasRenderingContext2D, f: Frame, tiles: TileCache): b
   return tiles.draw(ctx, p, `${p.id}/${surface.id}/${image.id}`, image, f.state, f.dpr, { width: f.width, height: f.height });
 }
 
-/** The inked bodies of the strokes, opaque ink black (the layer is shown at 70 %). */
+/** The strokes: inked bodies in ink black at 70 %, restored spans as dashed slate outlines with no fill. */
 export function drawStrokeLayer(ctx: CanvasRenderingContext2D, f: Frame): void {
-  if (!fromTiles(ctx, f, inkTiles)) paintInk(ctx, f);
+  if (!fromTiles(ctx, f, strokeTiles)) paintStrokes(ctx, f);
 }
 
 function ring(ctx: CanvasRenderingContext2D, x: number, y: number, z: number, filled: boolean): void {
@@ -195,15 +212,14 @@ function ductusArrow(ctx: CanvasRenderingContext2D, stroke: StrokeDoc, order: nu
 }
 
 /**
- * Restored spans (dashed slate outline, no fill), the selection (teal ring on white along
- * the pen's edge), anchors, and the ductus arrows when asked for.
+ * The selection (teal ring on white along the pen's edge), anchors, and the ductus
+ * arrows when asked for.
  */
 export function drawMarkLayer(ctx: CanvasRenderingContext2D, f: Frame, selectedAnchor: AnchorHit | undefined): void {
   const { state } = f;
   const z = state.zoom;
   const list = visibleStrokes(state.project, f, 12);
   if (list.length === 0) return;
-  if (!fromTiles(ctx, f, restoredTiles)) paintRestored(ctx, f, list);
   applyView(ctx, f);
   const lod = lodFor(z * f.dpr);
   const selected = new Set(state.selection);
