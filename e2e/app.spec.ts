@@ -5,7 +5,7 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import {
-  centrelineError, distanceToPolyline, fmt, frameStroke, openEditor, percentile, strokeById, toScreen, traceStroke,
+  centrelineError, distanceToPolyline, fmt, frameStroke, openEditor, strokeById, toScreen, traceStroke,
   truthStroke, watchErrors, type TraceResult,
 } from './helpers.ts';
 

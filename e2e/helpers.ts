@@ -5,6 +5,7 @@
  * `window.__inkroute` (app/testHook.ts), typed loosely here: e2e imports nothing of the app.
  */
 import { expect, type Page } from '@playwright/test';
+import { distToPolyline } from '../test/helpers/render.ts';
 
 export interface Pt {
   x: number;
@@ -160,17 +161,7 @@ export async function traceStroke(page: Page, stroke: TruthStroke, moves = 12): 
 }
 
 function distanceToPolyline(p: Pt, line: readonly Pt[]): number {
-  let best = Infinity;
-  for (let i = 1; i < line.length; i++) {
-    const a = line[i - 1];
-    const b = line[i];
-    const dx = b.x - a.x;
-    const dy = b.y - a.y;
-    const l2 = dx * dx + dy * dy || 1;
-    const t = Math.max(0, Math.min(1, ((p.x - a.x) * dx + (p.y - a.y) * dy) / l2));
-    best = Math.min(best, Math.hypot(a.x + t * dx - p.x, a.y + t * dy - p.y));
-  }
-  return best;
+  return distToPolyline(line, p.x, p.y);
 }
 
 /** Mean distance of the truth centreline to the traced one, px: over all truth samples, and over visible ink only. */

@@ -212,7 +212,8 @@ export function refinePath(
   const sabs = (v: number): number => Math.sqrt(v * v + EPS_R * EPS_R);
   const stepLen = (i: number): number => Math.hypot(x[i] - x[i - 1], y[i] - y[i - 1]);
   /** Adherence (and length) term of step i with the current state. */
-  const reach = options.radiusMax > 0 ? chord.outerWidth + 0.5 : 0;
+  // How far beyond the pen's edge the chord must be sampled: the outer band and one step.
+  const reach = chord.outerWidth + 0.5;
   const adhTerm = (i: number): number => {
     if (i <= 0 || i >= n) return 0;
     profile.sample(ink, x[i], y[i], tx[i], ty[i], Math.max(r[i], chord.coreRadius) + reach);
