@@ -143,3 +143,54 @@ test('Refine: dragging an anchor re-solves the stroke through it; undo restores 
   await expect.poll(() => strokeById(page, before.id)).toEqual(after);
   expect(errors).toEqual([]);
 });
+
+test('Details: pin the pen radius at an anchor and free it; mark a span restored, then inked, by hand; each one undo step', async ({ page }) => {
+  test.setTimeout(120_000);
+  const errors = watchErrors(page);
+  const truth = await openEditor(page);
+  // A stroke across an abrasion gap: its measured restored span is what the marks override.
+  const { stroke: traced } = await traceStroke(page, truthStroke(truth, 'L2.6-s1'), 3);
+  const details = page.getByRole('complementary', { name: 'Details' });
+  const solvedStartR = traced.samples[0].r;
+  await expect(details.getByText(`radius free (${solvedStartR.toFixed(1)} px)`).first()).toBeVisible();
+
+  // Pin at the current width: the anchor holds the solved radius and the re-solve keeps it.
+  await details.getByRole('button', { name: 'Pin radius at start' }).click();
+  await expect.poll(async () => (await strokeById(page, traced.id)).anchors[0].r).toBeCloseTo(solvedStartR, 9);
+  // Type a new width: the stroke is re-solved with the pen held at exactly that radius there.
+  const field = details.getByRole('spinbutton', { name: 'Pinned radius at start, px' });
+  await field.fill('3.5');
+  await field.press('Enter');
+  await expect.poll(async () => (await strokeById(page, traced.id)).anchors[0].r).toBe(3.5);
+  const pinned = await strokeById(page, traced.id);
+  expect(pinned.samples[0].r).toBeCloseTo(3.5, 6);
+  console.log(`Details: start radius solved ${fmt(solvedStartR)} px, pinned at 3.5 px → sample 0 radius ${fmt(pinned.samples[0].r, 3)} px`);
+  await details.getByRole('button', { name: 'Free' }).click();
+  await expect.poll(async () => (await strokeById(page, traced.id)).anchors[0].r).toBeUndefined();
+  // Undo keys go to the editor, not to a focused field.
+  const unfocus = () => page.locator('#details-heading').click();
+  await unfocus();
+  await page.keyboard.press('Control+z');
+  await expect.poll(() => strokeById(page, traced.id)).toEqual(pinned);
+
+  // The whole stroke marked restored by hand, then inked by hand.
+  const span = details.getByRole('combobox', { name: 'Span start – end' });
+  await expect(span).toHaveValue('measured');
+  const measuredSpans = pinned.restoredSpans.length;
+  expect(measuredSpans).toBeGreaterThan(0);
+  await span.selectOption('restored');
+  await expect(details.getByText('100 % restored')).toBeVisible();
+  await expect(details.getByText(/overridden as restored/)).toBeVisible();
+  await details.screenshot({ path: 'test-results/e2e/details-marks.png' });
+  const last = pinned.samples.length - 1;
+  expect((await strokeById(page, traced.id)).overrides).toEqual([{ from: 0, to: last, kind: 'restored' }]);
+  await span.selectOption('inked');
+  await expect(details.getByText('0 % restored')).toBeVisible();
+  await unfocus();
+  await page.keyboard.press('Control+z');
+  await expect(span).toHaveValue('restored');
+  await details.getByRole('button', { name: `Remove the mark on samples 0–${last}` }).click();
+  await expect(span).toHaveValue('measured');
+  expect(await strokeById(page, traced.id)).toEqual(pinned);
+  expect(errors).toEqual([]);
+});

@@ -34,6 +34,7 @@ export interface StrokeDoc {
   anchors: { x: number; y: number; r?: number }[];
   samples: Sample[];
   restoredSpans: { from: number; to: number }[];
+  overrides: { from: number; to: number; kind: 'restored' | 'inked' }[];
 }
 
 /** Collects console errors and uncaught page errors from the moment the page opens. */

@@ -8,7 +8,7 @@ import { renderToStaticMarkup } from 'react-dom/server';
 import { afterEach, describe, expect, it } from 'vitest';
 import { KeySheet } from '../app/tools/KeySheet.tsx';
 import { handleKey, KEY_BINDINGS, keyLabel, type KeyApi, type KeyInput } from '../app/tools/keys.ts';
-import { markSpan, overridesWithSpan, pinRadius } from '../app/tools/index.ts';
+import { markSpan, overridesWithSpan, pinRadius, spanMarking } from '../app/tools/index.ts';
 import type { Tool, ToolEvent } from '../app/tools/types.ts';
 import { effectiveRestoredSpans } from '../src/doc/rules.ts';
 import type { StrokeDoc } from '../src/doc/model.ts';
@@ -547,6 +547,16 @@ describe('Refine tool', () => {
       { from: 5, to: 6, kind: 'restored' }, { from: 9, to: 12, kind: 'restored' },
     ]);
     expect(overridesWithSpan(stroke, 40, 99, 'inked')).toEqual([{ from: 40, to: 49, kind: 'inked' }]);
+  });
+
+  it('spanMarking tells a span marked wholly by one kind from a partly marked or unmarked one', () => {
+    const stroke = { overrides: [{ from: 5, to: 12, kind: 'restored' as const }, { from: 13, to: 20, kind: 'inked' as const }] };
+    expect(spanMarking(stroke, 0, 4)).toBe('measured');
+    expect(spanMarking(stroke, 5, 12)).toBe('restored');
+    expect(spanMarking(stroke, 12, 6)).toBe('restored');
+    expect(spanMarking(stroke, 14, 20)).toBe('inked');
+    expect(spanMarking(stroke, 4, 12)).toBe('mixed'); // one sample unmarked
+    expect(spanMarking(stroke, 10, 15)).toBe('mixed'); // two kinds
   });
 });
 

@@ -9,6 +9,7 @@ import { meanWidth, restoredShare, settingsOf, strokeLength } from '../../src/do
 import { useEditor } from '../store/useEditor.ts';
 import { formatCost, formatLength, formatShare, formatWidth } from './format.ts';
 import { SettingsEdit } from './resolve.ts';
+import { StrokeMarks } from './StrokeMarks.tsx';
 import './panels.css';
 
 type Mode = 'stroke' | 'defaults';
@@ -203,32 +204,7 @@ function SelectionFigures({ strokes, numbers, pxPerMm }: { strokes: StrokeDoc[];
         <dt>Length</dt><dd>{formatCost(f.cost.length)}</dd>
         <dt>Total</dt><dd>{formatCost(f.cost.total)}</dd>
       </dl>
-      {one && (
-        <>
-          <h3>Anchors</h3>
-          <ol className="anchor-list">
-            {one.anchors.map((a, i) => (
-              <li key={i}>
-                {i === 0 ? 'start' : i === one.anchors.length - 1 ? 'end' : `anchor ${i + 1}`}
-                {': '}
-                {a.r !== undefined ? `radius pinned at ${a.r.toFixed(1)} px` : 'radius free'}
-              </li>
-            ))}
-          </ol>
-          {one.overrides.length > 0 && (
-            <>
-              <h3>Marked by hand</h3>
-              <ul className="override-list">
-                {one.overrides.map((o, i) => (
-                  <li key={i}>
-                    samples {o.from}–{o.to}: overridden as {o.kind}
-                  </li>
-                ))}
-              </ul>
-            </>
-          )}
-        </>
-      )}
+      {one && <StrokeMarks stroke={one} />}
     </>
   );
 }

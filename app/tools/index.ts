@@ -17,7 +17,7 @@ export function createTool(name: ToolName, ctx: ToolContext): Tool {
 
 export { createFollowTool, createPanTool, createRefineTool, type RefineTool };
 export { pinRadius, markSpan, type ActionDeps } from './refine/actions.ts';
-export { anchorsWithInserted, anchorsWithout, anchorsWithRadius, overridesWithSpan } from './refine/edits.ts';
+export { anchorsWithInserted, anchorsWithout, anchorsWithRadius, overridesWithSpan, spanMarking, type SpanMarking } from './refine/edits.ts';
 export { handleKey, findBinding, isTyping, keyLabel, KEY_BINDINGS, type KeyApi, type KeyBinding, type KeyInput, type KeyOutcome } from './keys.ts';
 export { hitAnchorIn, hitStrokeIn } from './hit.ts';
 export type { Tool, ToolContext, ToolEvent, StrokeHit, AnchorHit } from './types.ts';

@@ -73,3 +73,23 @@ export function overridesWithSpan(
   }
   return merged;
 }
+
+/** How samples `from`..`to` are marked by hand: wholly one kind, not at all, or partly. */
+export type SpanMarking = 'measured' | SpanOverride['kind'] | 'mixed';
+
+export function spanMarking(stroke: Pick<StrokeDoc, 'overrides'>, from: number, to: number): SpanMarking {
+  const lo = Math.min(from, to);
+  const hi = Math.max(from, to);
+  let covered = 0;
+  const kinds = new Set<SpanOverride['kind']>();
+  for (const o of stroke.overrides) {
+    const a = Math.max(lo, o.from);
+    const b = Math.min(hi, o.to);
+    if (a > b) continue;
+    covered += b - a + 1;
+    kinds.add(o.kind);
+  }
+  if (covered === 0) return 'measured';
+  if (covered === hi - lo + 1 && kinds.size === 1) return [...kinds][0];
+  return 'mixed';
+}
