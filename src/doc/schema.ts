@@ -41,12 +41,51 @@ const image = z.object({
   bitDepth: z.number().int().positive(),
 });
 
+const scaleSource = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('ruler'), x0: finite, y0: finite, x1: finite, y1: finite, mm: finite.refine((v) => v > 0, 'a ruler length must be positive') }),
+  z.object({ kind: z.literal('file'), detail: z.string() }),
+]);
+
 const surface = z.object({
   id: z.string().min(1),
   name: z.string(),
   images: z.array(image).min(1),
   pxPerMm: finite.refine((v) => v > 0, 'scale must be positive').optional(),
+  scaleSource: scaleSource.optional(),
   strokeOrder: z.array(z.string()),
+});
+
+const textPlace = {
+  line: z.number().int().positive(),
+  lineByHand: z.boolean(),
+  order: z.number().int().positive(),
+};
+
+const letter = z.object({
+  id: z.string().min(1),
+  surfaceId: z.string().min(1),
+  strokeIds: z.array(z.string().min(1)).min(1),
+  label: z.string(),
+  reading: z.enum(['clear', 'doubtful']),
+  restored: z.boolean(),
+  ...textPlace,
+});
+
+const textMark = z.object({
+  id: z.string().min(1),
+  surfaceId: z.string().min(1),
+  kind: z.enum(['divider', 'lacuna']),
+  x: finite,
+  y: finite,
+  lost: z.number().int().positive().optional(),
+  ...textPlace,
+});
+
+const inscription = z.object({
+  script: z.string().min(1),
+  direction: z.enum(['ltr', 'rtl']),
+  description: z.string(),
+  creator: z.string(),
 });
 
 export const projectSchema = z.object({
@@ -59,6 +98,9 @@ export const projectSchema = z.object({
   defaults: settings,
   surfaces: z.array(surface).min(1),
   strokes: z.record(z.string(), stroke),
+  inscription,
+  letters: z.record(z.string(), letter),
+  textMarks: z.record(z.string(), textMark),
 });
 
 /** Thrown for a project that cannot be read; the message is one plain sentence. */
@@ -66,8 +108,14 @@ export class ProjectFormatError extends Error {
   override name = 'ProjectFormatError';
 }
 
-/** Upgrades older project.json versions step by step (none yet: version 1 is the first). */
-const MIGRATIONS: Record<number, (old: Record<string, unknown>) => Record<string, unknown>> = {};
+/** What a project of version 1 (strokes only) reads as: no letters yet, a Latin left-to-right text. */
+export const V1_INSCRIPTION = { script: 'Latin', direction: 'ltr', description: '', creator: '' } as const;
+
+/** Upgrades older project.json versions step by step: MIGRATIONS[v] turns version v into v + 1. */
+const MIGRATIONS: Record<number, (old: Record<string, unknown>) => Record<string, unknown>> = {
+  // 1 → 2: letters, text marks and the inscription's script and reading direction.
+  1: (old) => ({ ...old, version: 2, inscription: { ...V1_INSCRIPTION }, letters: {}, textMarks: {} }),
+};
 
 export function parseProject(json: unknown): Project {
   if (typeof json !== 'object' || json === null) throw new ProjectFormatError('project.json is not a JSON object.');
@@ -96,6 +144,21 @@ export function parseProject(json: unknown): Project {
       if (!st) throw new ProjectFormatError(`surface ${s.name} lists a stroke ${id} that the project does not have.`);
       if (st.surfaceId !== s.id) throw new ProjectFormatError(`stroke ${id} is listed on a surface it does not belong to.`);
     }
+  }
+  const letterOf = new Map<string, string>();
+  for (const l of Object.values(project.letters)) {
+    if (!project.surfaces.some((s) => s.id === l.surfaceId)) throw new ProjectFormatError(`letter ${l.id} is on a surface the project does not have.`);
+    for (const id of l.strokeIds) {
+      const other = letterOf.get(id);
+      if (other) throw new ProjectFormatError(`stroke ${id} belongs to two letters (${other} and ${l.id}).`);
+      letterOf.set(id, l.id);
+      const st = project.strokes[id];
+      if (!st) throw new ProjectFormatError(`letter ${l.id} has a stroke ${id} that the project does not have.`);
+      if (st.surfaceId !== l.surfaceId) throw new ProjectFormatError(`letter ${l.id} has a stroke ${id} of another surface.`);
+    }
+  }
+  for (const m of Object.values(project.textMarks)) {
+    if (!project.surfaces.some((s) => s.id === m.surfaceId)) throw new ProjectFormatError(`text mark ${m.id} is on a surface the project does not have.`);
   }
   return project;
 }
