@@ -5,7 +5,8 @@ import react from '@vitejs/plugin-react';
 export default defineConfig({
   root: '.',
   plugins: [react()],
-  build: { outDir: 'dist', target: 'es2022' },
+  // INKROUTE_OUT_DIR lets two checks build side by side on one machine (default dist).
+  build: { outDir: process.env.INKROUTE_OUT_DIR ?? 'dist', target: 'es2022' },
   worker: { format: 'es' },
   test: {
     include: ['test/**/*.test.ts'],
