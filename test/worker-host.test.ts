@@ -6,6 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_SETTINGS } from '../src/doc/rules.ts';
 import type { SolverSettings } from '../src/doc/model.ts';
+import { encodeGrayPng } from '../src/image/codec.ts';
+import { createGray } from '../src/image/gray.ts';
 import { EngineClient } from '../src/worker/client.ts';
 import { EngineHost } from '../src/worker/host.ts';
 import { createLoopback } from '../src/worker/loopback.ts';
@@ -237,6 +239,24 @@ describe('EngineClient over the loopback port', () => {
     await client.loadImage('a', W, H, luma(arcA));
     return client;
   }
+
+  it('decodes an image file itself: the same evidence as from the luma, and a clear error for a broken file', async () => {
+    const { port } = createLoopback();
+    const client = new EngineClient(port);
+    // 16-bit grey PNG of the luma: the decoder gives back the same values to 1/65535.
+    const l = luma(arcA);
+    const png = encodeGrayPng(createGray(W, H, l), { depth: 16 });
+    await client.loadImageFile('file', png);
+    await client.loadImage('luma', W, H, l);
+    const [a, b] = await Promise.all([client.evidence('file'), client.evidence('luma')]);
+    let worst = 0;
+    for (let i = 0; i < a.data.length; i++) worst = Math.max(worst, Math.abs(a.data[i] - b.data[i]));
+    expect(worst).toBeLessThanOrEqual(1);
+    expect(png.length).toBeGreaterThan(100); // the caller's bytes are kept (a copy travelled)
+    await expect(client.loadImageFile('bad', png.slice(0, 60))).rejects.toThrow(/PNG|image|truncated|decode/i);
+    await expect(client.loadImageFile('band', png, 1)).rejects.toThrow('the image has 1 band(s), not a band 2.');
+    client.dispose();
+  });
 
   it('is asynchronous and answers load, evidence and solve', async () => {
     const client = await loaded();

@@ -15,6 +15,11 @@ export interface SolveResult {
 export interface EngineBridge {
   /** Hands one band's luma (0..1) to the engine, which computes and keeps its ink evidence. */
   loadImage(imageId: string, width: number, height: number, data: Float32Array): Promise<void>;
+  /**
+   * Hands an image file (PNG or JPEG bytes) to the engine, which decodes band `band`
+   * (default 0) off the page's thread and computes its ink evidence; the caller keeps its bytes.
+   */
+  loadImageFile(imageId: string, bytes: Uint8Array, band?: number): Promise<void>;
   /** Starts growing a preview tree from `start`; replaces any earlier one. */
   startPreview(imageId: string, start: Point, settings: SolverSettings): void;
   /**

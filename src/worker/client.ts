@@ -58,6 +58,15 @@ export class EngineClient {
     return this.call({ type: 'load-image', id: 0, imageId, width, height, luma }, [luma.buffer as ArrayBuffer]).then(() => undefined);
   }
 
+  /**
+   * Hands an image file (PNG or JPEG) to the engine, which decodes band `band` (default 0)
+   * itself, off the page's thread. A copy of the bytes travels, so the caller keeps its own.
+   */
+  loadImageFile(imageId: string, bytes: Uint8Array, band = 0): Promise<void> {
+    const copy = bytes.slice();
+    return this.call({ type: 'load-file', id: 0, imageId, bytes: copy, band }, [copy.buffer as ArrayBuffer]).then(() => undefined);
+  }
+
   evidence(imageId: string): Promise<{ width: number; height: number; data: Uint8ClampedArray }> {
     return this.call({ type: 'evidence', id: 0, imageId }, []).then((r) => {
       if (r.type !== 'evidence') throw new Error(`internal: answer ${r.type} to an evidence request`);

@@ -6,11 +6,12 @@
  * worker runs it, and so do Node tests and the in-process engine.
  */
 import type { Anchor, SolverSettings } from '../doc/model.ts';
-import { createGray } from '../image/gray.ts';
+import { decodeImage } from '../image/codec.ts';
+import { createGray, type GrayImage } from '../image/gray.ts';
 import { inkEvidence } from '../ink/index.ts';
 import { followStroke, prepareInk, startPreview, type PreparedInk, type PreviewTree, type Stroke, type StrokeSample } from '../trace/index.ts';
 import type {
-  EngineReply, EngineRequest, LoadImageRequest, PostReply, PreviewPathRequest, SolveRequest,
+  EngineReply, EngineRequest, LoadFileRequest, LoadImageRequest, PostReply, PreviewPathRequest, SolveRequest,
 } from './protocol.ts';
 
 export interface EngineHostOptions {
@@ -73,6 +74,9 @@ export class EngineHost {
     switch (msg.type) {
       case 'load-image':
         this.loadImage(msg);
+        return;
+      case 'load-file':
+        this.loadFile(msg);
         return;
       case 'evidence': {
         const prep = this.images.get(msg.imageId);
@@ -147,9 +151,24 @@ export class EngineHost {
   }
 
   private loadImage(msg: LoadImageRequest): void {
+    this.prepareImage(msg.id, msg.imageId, () => createGray(msg.width, msg.height, msg.luma));
+  }
+
+  private loadFile(msg: LoadFileRequest): void {
+    this.prepareImage(msg.id, msg.imageId, () => {
+      const decoded = decodeImage(msg.bytes);
+      const band = msg.band ?? 0;
+      const gray = decoded.bands[band];
+      if (!gray) throw new RangeError(`the image has ${decoded.bands.length} band(s), not a band ${band + 1}.`);
+      return gray;
+    });
+  }
+
+  private prepareImage(id: number, imageId: string, source: () => GrayImage): void {
+    const msg = { id, imageId };
     try {
       const t0 = performance.now();
-      const gray = createGray(msg.width, msg.height, msg.luma);
+      const gray = source();
       const prep = prepareInk(inkEvidence(gray));
       // A reloaded image invalidates a preview grown on the old one.
       if (this.images.has(msg.imageId)) this.dropPreview();

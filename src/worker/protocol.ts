@@ -20,6 +20,20 @@ export interface LoadImageRequest {
   luma: Float32Array;
 }
 
+/**
+ * Hands an image file (PNG or JPEG bytes) to the engine, which decodes it itself, so a
+ * large photo is never decoded on the page's thread; answered by 'loaded' (or 'error'
+ * with the decoder's message). `band` picks the band of a multi-band file (default 0).
+ */
+export interface LoadFileRequest {
+  type: 'load-file';
+  id: number;
+  imageId: string;
+  /** The file's bytes; transferred. */
+  bytes: Uint8Array;
+  band?: number;
+}
+
 /** Asks for the ink evidence of a loaded image as 8-bit values; answered by 'evidence'. */
 export interface EvidenceRequest {
   type: 'evidence';
@@ -71,7 +85,7 @@ export interface CancelRequest {
 }
 
 export type EngineRequest =
-  | LoadImageRequest | EvidenceRequest | PreviewStartRequest | PreviewPathRequest
+  | LoadImageRequest | LoadFileRequest | EvidenceRequest | PreviewStartRequest | PreviewPathRequest
   | PreviewStopRequest | SolveRequest | CancelRequest;
 
 export interface LoadedReply {
