@@ -80,6 +80,9 @@ function decodePngFile(bytes: Uint8Array): DecodedImage {
     data = convertIndexedToRgb(png);
     channels = png.transparency ? 4 : 3;
     max = 255;
+  } else if (png.depth < 8) {
+    // 1-, 2- and 4-bit grey come packed, each row starting on a byte (PNG specification, 7.2).
+    data = unpackSamples(png.data as Uint8Array, png.width, png.height, channels, png.depth);
   }
   if (data.length < png.width * png.height * channels) {
     throw new ImageFormatError('the PNG file is truncated: it holds fewer pixels than its header says.');
@@ -88,6 +91,40 @@ function decodePngFile(bytes: Uint8Array): DecodedImage {
   let pxPerMm: number | undefined;
   if (png.resolution && png.resolution.unit === 1 && png.resolution.x > 0) pxPerMm = png.resolution.x / 1000;
   return { bands: [band], bitDepth: png.depth, pxPerMm, format: 'png' };
+}
+
+/** Samples of `depth` < 8 bits, packed with each row starting on a byte, one per entry. */
+export function unpackSamples(packed: Uint8Array, width: number, height: number, channels: number, depth: number): Uint8Array {
+  const perRow = width * channels;
+  const rowBytes = Math.ceil((perRow * depth) / 8);
+  const out = new Uint8Array(perRow * height);
+  if (packed.length < rowBytes * height) return out.subarray(0, 0); // the caller reports it as truncated
+  const mask = (1 << depth) - 1;
+  for (let y = 0; y < height; y++) {
+    const row = y * rowBytes;
+    for (let i = 0; i < perRow; i++) {
+      const bit = i * depth;
+      out[y * perRow + i] = (packed[row + (bit >> 3)] >> (8 - depth - (bit & 7))) & mask;
+    }
+  }
+  return out;
+}
+
+/**
+ * The pixel density of a JPEG's JFIF APP0 segment (JPEG File Interchange Format 1.02:
+ * units 1 = dots per inch, 2 = dots per cm; 0 gives only an aspect ratio), in px per mm.
+ */
+export function jfifPxPerMm(bytes: Uint8Array): number | undefined {
+  // SOI, then APP0 (FF E0) with its length, 'JFIF\0', version (2), units, Xdensity, Ydensity.
+  if (bytes.length < 18 || bytes[2] !== 0xff || bytes[3] !== 0xe0) return undefined;
+  const id = String.fromCharCode(bytes[6], bytes[7], bytes[8], bytes[9]);
+  if (id !== 'JFIF' || bytes[10] !== 0) return undefined;
+  const units = bytes[13];
+  const x = (bytes[14] << 8) | bytes[15];
+  if (x <= 0) return undefined;
+  if (units === 1) return x / 25.4;
+  if (units === 2) return x / 10;
+  return undefined;
 }
 
 function decodeJpegFile(bytes: Uint8Array): DecodedImage {
@@ -99,7 +136,7 @@ function decodeJpegFile(bytes: Uint8Array): DecodedImage {
   }
   checkSize(img.width, img.height);
   const band = lumaFromInterleaved(img.data, img.width, img.height, 4, 255);
-  return { bands: [band], bitDepth: 8, format: 'jpeg' };
+  return { bands: [band], bitDepth: 8, pxPerMm: jfifPxPerMm(bytes), format: 'jpeg' };
 }
 
 export interface EncodePngOptions {
