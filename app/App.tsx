@@ -9,11 +9,13 @@ import { useStore } from 'zustand';
 import { newProject } from '../src/doc/rules.ts';
 import type { InscriptionTruth } from '../src/synth/types.ts';
 import { InkCanvas } from './canvas/InkCanvas.tsx';
+import { ToolForms } from './canvas/ToolForms.tsx';
 import { activeTool, setPanHeld, switchTool } from './canvas/tools.ts';
 import { actualSize, fitToWindow } from './canvas/view.ts';
 import { DetailsPanel } from './panels/DetailsPanel.tsx';
 import { StatusStrip } from './panels/StatusStrip.tsx';
 import { StrokesPanel } from './panels/StrokesPanel.tsx';
+import { ExportDialog } from './export/ExportDialog.tsx';
 import { FileButtons } from './persist/FileButtons.tsx';
 import { RestoreOffer } from './persist/RestoreOffer.tsx';
 import { startup } from './persist/startup.ts';
@@ -47,11 +49,11 @@ async function loadDemo(): Promise<void> {
 /** The working order of the top bar; the steps not built yet say so. */
 const STEPS: { label: string; tool?: ToolName; key?: string }[] = [
   { label: 'Surfaces' },
-  { label: 'Calibrate' },
+  { label: 'Calibrate', tool: 'calibrate', key: 'C' },
   { label: 'Teach ink' },
   { label: 'Follow', tool: 'follow', key: 'F' },
   { label: 'Refine', tool: 'refine', key: 'R' },
-  { label: 'Letter' },
+  { label: 'Letter', tool: 'letter', key: 'L' },
   { label: 'Suggest' },
   { label: 'Export' },
 ];
@@ -59,7 +61,7 @@ const STEPS: { label: string; tool?: ToolName; key?: string }[] = [
 /** Top-bar buttons leave the keyboard focus where it was, so Enter and Space keep going to the canvas. */
 const keepFocus = (e: React.MouseEvent) => e.preventDefault();
 
-function TopBar() {
+function TopBar({ onExport }: { onExport(): void }) {
   const title = useEditor((s) => s.project?.title);
   const tool = useEditor((s) => s.tool);
   const hasProject = useEditor((s) => s.project !== undefined);
@@ -94,7 +96,9 @@ function TopBar() {
             {s.label}
           </button>
         ) : (
-          <button key={s.label} type="button" className="step" disabled title="comes later">{s.label}</button>
+          s.label === 'Export'
+            ? <button key={s.label} type="button" className="step" disabled={!hasProject} title="Export the facsimile, letters, chart, transcription and annotations" onClick={onExport}>{s.label}</button>
+            : <button key={s.label} type="button" className="step" disabled title="comes later">{s.label}</button>
         )))}
       </nav>
       <span className="bar-group">
@@ -124,6 +128,7 @@ function TopBar() {
 
 export function App() {
   const [keySheet, setKeySheet] = useState(false);
+  const [exporting, setExporting] = useState(false);
 
   useEffect(() => {
     startup(loadDemo).catch((e: Error) => editorStore.getState().setMessage({ kind: 'error', text: `Could not open the demo: ${e.message}` }));
@@ -158,7 +163,7 @@ export function App() {
 
   return (
     <div className="page">
-      <TopBar />
+      <TopBar onExport={() => setExporting(true)} />
       <p className="note" role="note">
         A facsimile is an interpretation, not a copy: every traced stroke is a reading of the ink,
         and restored spans (parts of a stroke with no visible ink under the pen) are marked as restored,
@@ -168,12 +173,14 @@ export function App() {
         <StrokesPanel />
         <main className="stage">
           <InkCanvas />
+          <ToolForms />
         </main>
         <DetailsPanel />
       </div>
       <StatusStrip />
       <RestoreOffer />
       <KeySheet open={keySheet} onClose={() => setKeySheet(false)} />
+      <ExportDialog open={exporting} onClose={() => setExporting(false)} />
     </div>
   );
 }

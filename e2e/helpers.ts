@@ -16,12 +16,24 @@ export interface TruthStroke {
   samples: { x: number; y: number; r: number }[];
   gaps: { from: number; to: number }[];
 }
+export interface TruthLetter {
+  id: string;
+  name: string;
+  line: number;
+  order: number;
+  strokeIds: string[];
+  /** [x0, y0, x1, y1], px. */
+  box: [number, number, number, number];
+}
 export interface Truth {
   title: string;
   pxPerMm: number;
   width: number;
   height: number;
   strokes: TruthStroke[];
+  /** The ruler drawn on the photo: its ends, px, and its length, mm. */
+  ruler: { x0: number; y0: number; x1: number; y1: number; mm: number };
+  letters: TruthLetter[];
 }
 export interface Sample {
   x: number;

@@ -20,6 +20,7 @@ import type { EditorState } from '../store/store.ts';
 import { editorStore, useEditor } from '../store/useEditor.ts';
 import { drawImageLayer, drawLiveLayer, drawMarkLayer, drawStrokeLayer, type Frame } from './draw.ts';
 import { followProjectImages, imageEntry, subscribeImages } from './images.ts';
+import { drawLetterLayer, hasLetterMarks } from './letters.ts';
 import { attachPointer } from './pointer.ts';
 import { probe } from './probe.ts';
 import { runTools, selectedAnchor } from './tools.ts';
@@ -48,9 +49,9 @@ function hasLive(s: EditorState): boolean {
   return (s.preview?.length ?? 0) > 0 || s.pending.length > 0;
 }
 
-/** Whether the marks layer may have anything to show: a selection, Refine's anchors, the ductus. */
+/** Whether the marks layer may have anything to show: a selection, Refine's anchors, the ductus, letters and text marks. */
 function hasMarks(s: EditorState): boolean {
-  return s.selection.length > 0 || s.tool === 'refine' || s.showDuctus;
+  return s.selection.length > 0 || s.tool === 'refine' || s.showDuctus || hasLetterMarks(s);
 }
 
 export function InkCanvas() {
@@ -140,7 +141,7 @@ export function InkCanvas() {
       }
       // The preview is drawn at once, not on the next frame: it is what the pointer waits for.
       if (s.preview !== prev.preview || s.pending !== prev.pending) layers.current.live?.draw();
-      if (s.toolPath !== prev.toolPath) redraw('marks');
+      if (s.toolPath !== prev.toolPath || s.letterSelection !== prev.letterSelection || s.guide !== prev.guide) redraw('marks');
       if (s.overlay !== prev.overlay) redraw('overlay');
     });
     return () => {
@@ -165,7 +166,12 @@ export function InkCanvas() {
     if (s.overlay) drawImageLayer(c, frame(), imageEntry(currentImage(s.project)?.id)?.overlay);
   });
   const strokeScene = (ctx: Konva.Context) => timed('strokes', ctx, (c) => drawStrokeLayer(c, frame()));
-  const markScene = (ctx: Konva.Context) => timed('marks', ctx, (c) => drawMarkLayer(c, frame(), selectedAnchor()));
+  const markScene = (ctx: Konva.Context) => timed('marks', ctx, (c) => {
+    c.save();
+    drawMarkLayer(c, frame(), selectedAnchor());
+    c.restore();
+    drawLetterLayer(c, frame());
+  });
   const liveScene = (ctx: Konva.Context) => timed('live', ctx, (c) => {
     const end = drawLiveLayer(c, frame());
     if (end) {

@@ -5,3 +5,5 @@ export const INK_OPACITY = 0.7;
 export const RESTORED = '#6b7280';
 export const SELECTION = '#0f9d8a';
 export const HALO = '#ffffff';
+/** Box of a doubtful letter; a clear letter's box is teal (SELECTION). */
+export const DOUBTFUL = '#b7791f';

@@ -4,10 +4,18 @@
  * the moment (errors as an alert, read out by screen readers).
  */
 import { useEffect, useRef, useState } from 'react';
+import type { ScaleSource } from '../../src/doc/model.ts';
 import { editorStore, useEditor } from '../store/useEditor.ts';
 import { hasUnsavedWork } from '../persist/autosave.ts';
 import { formatPoint } from './format.ts';
 import './panels.css';
+
+/** Where the scale came from, in the strip's words. */
+export function scaleSourceText(source: ScaleSource | undefined): string {
+  if (!source) return 'given with the image';
+  if (source.kind === 'ruler') return `from a ruler (${source.mm} mm), figures in mm`;
+  return `from the file's resolution tag (${source.detail}); check it with Calibrate`;
+}
 
 /** Jobs shorter than this are not shown: a flash of a bar is noise, ms. */
 export const JOB_SHOW_AFTER_MS = 300;
@@ -49,7 +57,10 @@ export function StatusStrip() {
 
   return (
     <footer className="status status-strip" aria-label="Status">
-      <span>scale {!hasProject ? '–' : pxPerMm ? `${pxPerMm.toFixed(1)} px/mm` : 'not calibrated'}</span>
+      <span className="status-scale">
+        scale {!hasProject ? '–' : pxPerMm ? `${pxPerMm.toFixed(1)} px/mm` : 'not calibrated'}
+        {hasProject && pxPerMm ? ` · ${scaleSourceText(surface?.scaleSource)}` : ''}
+      </span>
       <span>zoom {Math.round(zoom * 100)} %</span>
       <span>cursor {cursor ? formatPoint(cursor.x, cursor.y, pxPerMm) : '–'}</span>
       <span>last solve {lastSolveMs !== undefined ? `${Math.round(lastSolveMs)} ms` : '–'}</span>

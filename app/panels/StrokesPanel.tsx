@@ -1,6 +1,6 @@
 /**
  * The left panel: the strokes in ductus order (the order of writing) with their figures,
- * selection, hiding, deleting and reordering; the Letters list comes later. Every edit is
+ * selection, hiding, deleting and reordering; the Letters list below (LettersPanel). Every edit is
  * one store.change, so one undo step.
  */
 import { useState } from 'react';
@@ -8,6 +8,7 @@ import type { Project } from '../../src/doc/model.ts';
 import { deleteStrokes, meanWidth, moveStroke, restoredShare, setHidden, strokeLength } from '../../src/doc/rules.ts';
 import { editorStore, useEditor } from '../store/useEditor.ts';
 import { formatLength, formatShare, formatWidth } from './format.ts';
+import { LettersPanel } from './LettersPanel.tsx';
 import './panels.css';
 
 /** Where a dragged stroke goes: before or after the row under the pointer. */
@@ -132,12 +133,7 @@ export function StrokesPanel() {
           </div>
         ))}
       </section>
-      <section aria-labelledby="letters-heading">
-        <div className="panel-head">
-          <h2 id="letters-heading">Letters</h2>
-        </div>
-        <p className="panel-empty">Grouping strokes into letters comes later.</p>
-      </section>
+      <LettersPanel />
     </aside>
   );
 }

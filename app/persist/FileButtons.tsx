@@ -6,6 +6,7 @@
 import { useEffect, useRef } from 'react';
 import { useEditor } from '../store/useEditor.ts';
 import { hasUnsavedWork } from './autosave.ts';
+import { OpenExampleButton } from './openExample.tsx';
 import { installFileDrop, OPEN_ACCEPT, openFile, saveProjectFile } from './projectIO.ts';
 
 export function FileButtons() {
@@ -35,6 +36,7 @@ export function FileButtons() {
   return (
     <span className="file-buttons">
       <button type="button" onClick={() => input.current?.click()} title="Open a project file or a photo (Ctrl+O)">Open…</button>
+      <OpenExampleButton />
       <button
         type="button"
         onClick={() => saveProjectFile()}

@@ -104,6 +104,8 @@ export async function openImageFile(file: File, store: EditorStore = editorStore
       height: band.height,
       bitDepth: decoded.bitDepth,
     }, decoded.pxPerMm);
+    // The resolution tag is where the starting scale came from; Calibrate can check it.
+    if (decoded.pxPerMm) project.surfaces[0].scaleSource = { kind: 'file', detail: kind === 'jpeg' ? 'JPEG JFIF density' : 'PNG pHYs' };
     store.getState().loadProject(project, new Map([[path, bytes]]));
     const scale = decoded.pxPerMm ? `scale ${decoded.pxPerMm.toFixed(1)} px/mm from the file` : 'not calibrated yet';
     message(store, 'info', `Opened ${file.name} (${band.width}×${band.height} px, ${decoded.bitDepth} bit, ${scale}).`);

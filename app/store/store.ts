@@ -7,10 +7,19 @@
 import { createStore, type StoreApi } from 'zustand/vanilla';
 import { temporal, type TemporalState } from 'zundo';
 import type { Anchor, Project } from '../../src/doc/model.ts';
-import { deleteStrokes } from '../../src/doc/rules.ts';
+import { deleteLetters, deleteStrokes, deleteTextMarks } from '../../src/doc/rules.ts';
 import type { StrokeSample } from '../../src/trace/types.ts';
 
-export type ToolName = 'pan' | 'follow' | 'refine';
+export type ToolName = 'pan' | 'follow' | 'refine' | 'calibrate' | 'letter';
+
+/**
+ * What a tool draws over the photo while a gesture is under way: the Calibrate line
+ * along a ruler, the Letter tool's pick box, or a word divider or lacuna being placed (px).
+ */
+export type ToolGuide =
+  | { kind: 'ruler'; x0: number; y0: number; x1: number; y1: number }
+  | { kind: 'box'; x0: number; y0: number; x1: number; y1: number }
+  | { kind: 'mark'; mark: 'divider' | 'lacuna'; x: number; y: number };
 
 export interface DocumentSlice {
   project: Project | undefined;
@@ -18,6 +27,8 @@ export interface DocumentSlice {
   images: Map<string, Uint8Array>;
   /** Selected stroke ids. */
   selection: string[];
+  /** Selected letters and text marks (word dividers, lacunae), by id; kept pruned like `selection`. */
+  letterSelection: string[];
   /** The project as last saved to a file, to tell unsaved changes. */
   savedProject: Project | undefined;
   loadProject(project: Project, images: Map<string, Uint8Array>): void;
@@ -28,6 +39,9 @@ export interface DocumentSlice {
   cancelGesture(): void;
   select(ids: string[], mode?: 'replace' | 'add' | 'toggle'): void;
   deleteSelection(): void;
+  selectLetters(ids: string[], mode?: 'replace' | 'add' | 'toggle'): void;
+  /** Deletes the selected letters and text marks (not their strokes): one undo step. */
+  deleteLetterSelection(): void;
   undo(): void;
   redo(): void;
   markSaved(): void;
@@ -55,8 +69,10 @@ export interface ToolSlice {
   pending: Anchor[];
   /** The live preview path, drawn over the photo. */
   preview: StrokeSample[] | undefined;
+  /** The active tool's guide over the photo (ruler line, pick box, mark being placed). */
+  guide: ToolGuide | undefined;
   setTool(tool: ToolName): void;
-  setToolView(patch: Partial<Pick<ToolSlice, 'toolPath' | 'pending' | 'preview'>>): void;
+  setToolView(patch: Partial<Pick<ToolSlice, 'toolPath' | 'pending' | 'preview' | 'guide'>>): void;
 }
 
 export interface Job {
@@ -86,6 +102,26 @@ function pruneSelection(project: Project | undefined, selection: string[]): stri
   return kept.length === selection.length ? selection : kept;
 }
 
+/** Keeps the letter selection to letters and text marks that exist. */
+function pruneLetterSelection(project: Project | undefined, selection: string[]): string[] {
+  if (!project) return [];
+  const kept = selection.filter((id) => project.letters[id] || project.textMarks[id]);
+  return kept.length === selection.length ? selection : kept;
+}
+
+/** Both selections pruned for `project`. */
+function pruned(project: Project | undefined, s: Pick<DocumentSlice, 'selection' | 'letterSelection'>) {
+  return { selection: pruneSelection(project, s.selection), letterSelection: pruneLetterSelection(project, s.letterSelection) };
+}
+
+function pick(cur: string[], ids: string[], mode: 'replace' | 'add' | 'toggle'): string[] {
+  if (mode === 'replace') return [...new Set(ids)];
+  if (mode === 'add') return [...new Set([...cur, ...ids])];
+  const s = new Set(cur);
+  for (const id of ids) if (s.has(id)) s.delete(id); else s.add(id);
+  return [...s];
+}
+
 export function createEditorStore(): EditorStore {
   let gestureStart: Project | undefined;
   let inGesture = false;
@@ -96,9 +132,10 @@ export function createEditorStore(): EditorStore {
         project: undefined,
         images: new Map(),
         selection: [],
+        letterSelection: [],
         savedProject: undefined,
         loadProject: (project, images) => {
-          set({ project, images, selection: [], savedProject: project });
+          set({ project, images, selection: [], letterSelection: [], savedProject: project });
           store.temporal.getState().clear();
         },
         change: (fn) => {
@@ -106,7 +143,7 @@ export function createEditorStore(): EditorStore {
           if (!p) return;
           const next = fn(p);
           if (next === p) return;
-          set({ project: next, selection: pruneSelection(next, get().selection) });
+          set({ project: next, ...pruned(next, get()) });
         },
         beginGesture: () => {
           if (inGesture) return;
@@ -127,12 +164,12 @@ export function createEditorStore(): EditorStore {
           // Record one step whose past is the state before the gesture.
           set({ project: start });
           store.temporal.getState().resume();
-          set({ project: final, selection: pruneSelection(final, get().selection) });
+          set({ project: final, ...pruned(final, get()) });
         },
         cancelGesture: () => {
           if (!inGesture) return;
           inGesture = false;
-          set({ project: gestureStart, selection: pruneSelection(gestureStart, get().selection) });
+          set({ project: gestureStart, ...pruned(gestureStart, get()) });
           gestureStart = undefined;
           store.temporal.getState().resume();
         },
@@ -153,14 +190,22 @@ export function createEditorStore(): EditorStore {
           if (ids.length === 0) return;
           get().change((p) => deleteStrokes(p, ids));
         },
+        selectLetters: (ids, mode = 'replace') => {
+          set({ letterSelection: pruneLetterSelection(get().project, pick(get().letterSelection, ids, mode)) });
+        },
+        deleteLetterSelection: () => {
+          const ids = get().letterSelection;
+          if (ids.length === 0) return;
+          get().change((p) => deleteTextMarks(deleteLetters(p, ids), ids));
+        },
         undo: () => {
           if (inGesture) get().cancelGesture();
           store.temporal.getState().undo();
-          set({ selection: pruneSelection(get().project, get().selection) });
+          set(pruned(get().project, get()));
         },
         redo: () => {
           store.temporal.getState().redo();
-          set({ selection: pruneSelection(get().project, get().selection) });
+          set(pruned(get().project, get()));
         },
         markSaved: () => set({ savedProject: get().project }),
         // view
@@ -177,7 +222,8 @@ export function createEditorStore(): EditorStore {
         toolPath: 'follow.idle',
         pending: [],
         preview: undefined,
-        setTool: (tool) => set({ tool, toolPath: `${tool}.idle`, pending: [], preview: undefined }),
+        guide: undefined,
+        setTool: (tool) => set({ tool, toolPath: `${tool}.idle`, pending: [], preview: undefined, guide: undefined }),
         setToolView: (patch) => set(patch),
         // jobs
         lastSolveMs: undefined,

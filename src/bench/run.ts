@@ -14,6 +14,7 @@ import { buildLiftedProblem, LiftedWorkspace, solveLifted, type LiftedProblem } 
 import { boxDomain } from '../trace/domain.ts';
 import { DEFAULT_CHORD, DEFAULT_WEIGHTS } from '../trace/energy.ts';
 import { createRandom } from '../util/random.ts';
+import { exportBench } from './exportBench.ts';
 import { longStroke } from './fixtures.ts';
 import { fmt, median, percentile, timeRuns } from './stats.ts';
 
@@ -99,6 +100,10 @@ export async function runBench(options: BenchOptions = {}): Promise<void> {
     log(`live preview: tree over 400×400 px (${tree.total} states) grown in 16 ms slices: p50 ${fmt(median(grow))}  max ${fmt(Math.max(...grow))}`);
     log(`              path read-off to a covered cursor: p50 ${fmt(median(read), 3)}  p95 ${fmt(percentile(read, 95), 3)}  max ${fmt(Math.max(...read), 3)}`);
   }
+
+  // 4a. Export: the SVG facsimile of 5,000 strokes.
+  log('');
+  exportBench(log, quick);
 
   // 4. Against a general-purpose graph library on the same lifted graph.
   if (!quick) {

@@ -31,11 +31,12 @@ export function createProgram(): Command {
     .command('synth')
     .description('make a demo or test inscription with its ground truth')
     .option('--seed <n>', 'seed of the generator, a whole number')
-    .requiredOption('--out <dir>', 'folder to write visible.png, truth.json, scale.json, ink-mask.png into')
+    .option('--out <dir>', 'folder to write visible.png, truth.json, scale.json, ink-mask.png into')
+    .option('--project <file>', 'write the finished example project (every stroke traced, letters made) as FILE.inkroute')
     .option('--difficulty <level>', 'easy, medium or hard')
     .option('--bands <n>', '1 (visible) or 2 (visible and infrared)')
     .option('--demo', 'use the built-in demo inscription')
-    .option('--if-missing', 'do nothing when the folder already holds this seed')
+    .option('--if-missing', 'do nothing when the folder or project file already holds this seed')
     .action(async (options) => {
       const { runSynth } = await import('./synth.ts');
       await runSynth(options);
@@ -67,6 +68,30 @@ export function createProgram(): Command {
     .action(async (result: string, truth: string) => {
       const { runScore } = await import('./score.ts');
       runScore(result, truth);
+    });
+
+  program
+    .command('export')
+    .description('write the facsimile, letter set, paleographic chart, transcription or annotations of a project')
+    .argument('<project>', 'a project file, NAME.inkroute')
+    .option('--svg <file>', 'the facsimile as SVG')
+    .option('--png <file>', 'the facsimile as PNG')
+    .option('--dpi <n>', 'dots per inch of the PNG: 300 (default), 600, 1200')
+    .option('--transparent', 'PNG on a transparent background instead of white')
+    .option('--letters <file>', 'the letter set, a zip with letters.csv, letters.json and a folder per letter')
+    .option('--chart <file>', 'the paleographic chart as SVG')
+    .option('--tei <file>', 'the transcription as TEI XML')
+    .option('--annotations <file>', 'the letters as W3C Web Annotations, JSON-LD')
+    .option('--scale <n>', 'drawing size against the object: 1 is 1:1, 2 is 2:1 (default 1)')
+    .option('--restored <style>', 'restored spans drawn dashed (default) or grey')
+    .option('--labels', 'letter labels beside their letters')
+    .option('--line-numbers', 'line numbers in the margin')
+    .option('--photo [band]', 'the photo under the drawing (default the first band)')
+    .option('--margin <mm>', 'margin around each letter of the letter set, mm (default 2)')
+    .option('--surface <name>', 'surface to export (default the first)')
+    .action(async (project: string, options) => {
+      const { runExport } = await import('./export.ts');
+      await runExport(project, options);
     });
 
   program

@@ -1,11 +1,13 @@
 /**
  * `inkroute synth`: writes a synthetic inscription with its ground truth, as the demo
- * and as test and benchmark material.
+ * and as test and benchmark material (--out), and the finished example project, every
+ * stroke traced and grouped into letters (--project).
  */
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import { encodeGrayPng } from '../image/codec.ts';
 import { createGray } from '../image/gray.ts';
+import type { SynthOptions } from '../synth/options.ts';
 import type { Difficulty } from '../synth/types.ts';
 import { parseBands, parseDifficulty, parseSeed } from './args.ts';
 import { UsageError } from './errors.ts';
@@ -14,7 +16,9 @@ import { writeFailure } from './files.ts';
 /** Options of `inkroute synth` as commander hands them over. */
 export interface SynthArgs {
   seed?: string;
-  out: string;
+  out?: string;
+  /** The finished example project, FILE.inkroute. */
+  project?: string;
   difficulty?: string;
   bands?: string;
   demo?: boolean;
@@ -22,7 +26,8 @@ export interface SynthArgs {
 }
 
 export interface SynthPlan {
-  out: string;
+  out?: string;
+  project?: string;
   demo: boolean;
   ifMissing: boolean;
   seed?: number;
@@ -32,8 +37,10 @@ export interface SynthPlan {
 
 export function parseSynthArgs(args: SynthArgs): SynthPlan {
   if (args.seed === undefined && !args.demo) throw new UsageError('synth needs --seed N (or --demo)');
+  if (args.out === undefined && args.project === undefined) throw new UsageError('synth needs --out DIR or --project FILE.inkroute');
   return {
     out: args.out,
+    project: args.project,
     demo: Boolean(args.demo),
     ifMissing: Boolean(args.ifMissing),
     seed: args.seed === undefined ? undefined : parseSeed(args.seed),
@@ -68,18 +75,72 @@ export function isUpToDate(out: string, want: { seed: number; difficulty?: Diffi
   return truth.bands.every((b: unknown, i: number) => existsSync(join(out, bandFileName(String(b), i))));
 }
 
+/**
+ * Whether FILE already holds the finished example of these options: a readable project
+ * file whose project id is the one {@link exampleProjectId} gives (it encodes the seed
+ * and a digest of every option).
+ */
+export async function isProjectUpToDate(file: string, options: SynthOptions): Promise<boolean> {
+  if (!existsSync(file)) return false;
+  const { readProjectFile } = await import('../doc/projectFile.ts');
+  const { exampleProjectId } = await import('../example/finished.ts');
+  try {
+    return readProjectFile(readFileSync(file)).project.id === exampleProjectId(options);
+  } catch {
+    // Unreadable or damaged: made again.
+    return false;
+  }
+}
+
+/** Writes a file whole or not at all: to a temporary name first, then renamed over. */
+function writeWhole(path: string, data: Uint8Array | string): void {
+  const tmp = `${path}.${process.pid}.tmp`;
+  try {
+    mkdirSync(dirname(path), { recursive: true });
+    writeFileSync(tmp, data);
+    renameSync(tmp, path);
+  } catch (e) {
+    rmSync(tmp, { force: true });
+    throw writeFailure(path, e);
+  }
+}
+
 export async function runSynth(args: SynthArgs): Promise<void> {
   const plan = parseSynthArgs(args);
   // Loaded here so that the other commands start without the generator.
-  const { synthesize, demoOptions } = await import('../synth/index.ts');
-  const options = {
+  const { demoOptions } = await import('../synth/index.ts');
+  const options: SynthOptions = {
     ...(plan.demo ? demoOptions() : { seed: plan.seed as number }),
     ...(plan.seed !== undefined && { seed: plan.seed }),
     ...(plan.difficulty !== undefined && { difficulty: plan.difficulty }),
     ...(plan.bands !== undefined && { bands: plan.bands }),
   };
-  if (plan.ifMissing && isUpToDate(plan.out, options)) {
-    process.stdout.write(`synth: ${plan.out} already holds seed ${options.seed}, left as is\n`);
+  if (plan.out !== undefined) await writeSynthFolder(plan.out, plan.ifMissing, options);
+  if (plan.project !== undefined) await writeExampleProject(plan.project, plan.ifMissing, options);
+}
+
+async function writeExampleProject(file: string, ifMissing: boolean, options: SynthOptions): Promise<void> {
+  if (ifMissing && (await isProjectUpToDate(file, options))) {
+    process.stdout.write(`synth: ${file} already holds seed ${options.seed}, left as is\n`);
+    return;
+  }
+  const t0 = performance.now();
+  const { finishedExample } = await import('../example/finished.ts');
+  const { writeProjectFile } = await import('../doc/projectFile.ts');
+  const { project, images, truth } = finishedExample(options);
+  writeWhole(file, writeProjectFile({ project, images }));
+  const doubtful = Object.values(project.letters).filter((l) => l.reading === 'doubtful').length;
+  process.stdout.write(
+    `synth: wrote the finished example ${file} (seed ${truth.seed}, ${truth.difficulty}, ${truth.width}×${truth.height} px, ` +
+      `${Object.keys(project.strokes).length} strokes traced, ${Object.keys(project.letters).length} letters, ` +
+      `${doubtful} doubtful, ${(performance.now() - t0).toFixed(0)} ms)\n`,
+  );
+}
+
+async function writeSynthFolder(out: string, ifMissing: boolean, options: SynthOptions): Promise<void> {
+  const { synthesize } = await import('../synth/index.ts');
+  if (ifMissing && isUpToDate(out, options)) {
+    process.stdout.write(`synth: ${out} already holds seed ${options.seed}, left as is\n`);
     return;
   }
 
@@ -95,12 +156,12 @@ export async function runSynth(args: SynthArgs): Promise<void> {
   files.push(['ink-mask.png', encodeGrayPng(createGray(truth.width, truth.height, mask), { pxPerMm: truth.pxPerMm })]);
 
   try {
-    mkdirSync(plan.out, { recursive: true });
+    mkdirSync(out, { recursive: true });
   } catch (e) {
-    throw writeFailure(plan.out, e);
+    throw writeFailure(out, e);
   }
   for (const [name, data] of files) {
-    const path = join(plan.out, name);
+    const path = join(out, name);
     try {
       writeFileSync(path, data);
     } catch (e) {
@@ -109,7 +170,7 @@ export async function runSynth(args: SynthArgs): Promise<void> {
   }
   const ms = performance.now() - t0;
   process.stdout.write(
-    `synth: wrote ${files.map(([n]) => n).join(', ')} to ${plan.out} ` +
+    `synth: wrote ${files.map(([n]) => n).join(', ')} to ${out} ` +
       `(seed ${truth.seed}, ${truth.difficulty}, ${truth.width}×${truth.height} px, ${truth.pxPerMm} px/mm, ` +
       `${truth.strokes.length} strokes, ${ms.toFixed(0)} ms)\n`,
   );

@@ -5,10 +5,10 @@
  */
 import { DEFAULT_RADIUS } from '../trace/follow.ts';
 import { DEFAULT_WEIGHTS } from '../trace/energy.ts';
-import type { SampleSpan } from '../trace/types.ts';
+import type { SampleSpan, Stroke } from '../trace/types.ts';
 import { layoutText } from './layout.ts';
 import {
-  PROJECT_VERSION, type ImageRef, type Inscription, type Letter, type Project, type ScaleSource, type SolverSettings, type SpanOverride,
+  PROJECT_VERSION, type Anchor, type ImageRef, type Inscription, type Letter, type Project, type ScaleSource, type SolverSettings, type SpanOverride,
   type StrokeDoc, type TextMark,
 } from './model.ts';
 
@@ -50,6 +50,19 @@ function surfaceIndex(p: Project, surfaceId: string): number {
   const i = p.surfaces.findIndex((s) => s.id === surfaceId);
   if (i < 0) throw new Error(`no surface ${surfaceId}`);
   return i;
+}
+
+/**
+ * A stroke document made from a solve, as the Follow tool adds it: the anchors as given
+ * (px), the solver's samples, restored spans and cost, no hand overrides, shown.
+ */
+export function strokeFromSolve(
+  id: string, surfaceId: string, anchors: readonly Anchor[], solved: Pick<Stroke, 'samples' | 'restoredSpans' | 'cost'>,
+): StrokeDoc {
+  return {
+    id, surfaceId, anchors: anchors.map((a) => ({ ...a })), samples: solved.samples, restoredSpans: solved.restoredSpans,
+    overrides: [], cost: solved.cost, hidden: false,
+  };
 }
 
 export function addStroke(p: Project, stroke: StrokeDoc, at?: number): Project {

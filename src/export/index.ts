@@ -11,3 +11,4 @@ export { webAnnotations, letterIri, svgSelectorValue, ANNO_CONTEXT } from './ann
 export { letterSet, lettersCsv, csvField, LETTER_COLUMNS, DEFAULT_MARGIN, type LetterRow } from './letterset.ts';
 export { paleographicChart } from './chart.ts';
 export { letterShape, letterPolygon, lettersInReadingOrder, fillNonzero, type LetterShape } from './letterGeometry.ts';
+export { exportFiles, exportInputFromBundle, type ExportOptions } from './exportFiles.ts';

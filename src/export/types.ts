@@ -28,7 +28,7 @@ export interface FacsimileOptions {
   labels?: boolean;
   /** Line numbers in the margin. Default false. */
   lineNumbers?: boolean;
-  /** Length of the scale bar, mm; 0 for none. Default 10 (or 100 when the object is large). */
+  /** Length of the scale bar, mm; 0 for none. Default a round length (1, 2 or 5 × 10ⁿ mm) near a fifth of the object's width. */
   scaleBarMm?: number;
   /** Embed the photo (this band's image id) under the drawing. Default none. */
   photoImageId?: string;
