@@ -19,7 +19,7 @@ describe('stroke accuracy on the synthetic test set', () => {
   it('traces every stroke of the test set from its true endpoints', () => {
     for (const recipe of recipes) {
       const s = synthesize(recipe);
-      const prep = prepareInk(inkEvidence(s.bands[0]));
+      const prep = prepareInk(inkEvidence(s.bands[0]), s.bands[0]);
       for (const truth of s.truth.strokes) {
         const a = truth.samples[0];
         const b = truth.samples[truth.samples.length - 1];
@@ -81,7 +81,7 @@ describe('stroke accuracy on the built-in demo inscription, both bands', () => {
     const s = synthesize(demoOptions());
     const lines: string[] = [];
     for (let band = 0; band < s.bands.length; band++) {
-      const prep = prepareInk(inkEvidence(s.bands[band]));
+      const prep = prepareInk(inkEvidence(s.bands[band]), s.bands[band]);
       const scores = s.truth.strokes.map((t) => scoreStroke(
         followStroke(prep, { anchors: [t.samples[0], t.samples[t.samples.length - 1]] }), t, s.truth.strokes.filter((o) => o !== t)));
       const sum = summarizeScores(scores);

@@ -23,9 +23,10 @@ for (let k = 0; k < 400; k++) {
 const image = createGray(W, H, data);
 const before = resourceUsage().maxRSS * 1024;
 const t = performance.now();
-const prep = prepareInk(inkEvidence(image));
+// As the worker keeps it: the evidence, its coarse copy and the band (widths are measured on it).
+const prep = prepareInk(inkEvidence(image), image);
 const ms = performance.now() - t;
 const peak = resourceUsage().maxRSS * 1024;
 const imageBytes = data.byteLength;
-const keptBytes = prep.evidence.data.byteLength + prep.coarse.data.byteLength;
+const keptBytes = prep.evidence.data.byteLength + prep.coarse.data.byteLength + (prep.image?.data.byteLength ?? 0);
 console.log(JSON.stringify({ width: W, height: H, ms, baselineRss: before, peakRss: peak, imageBytes, keptBytes }));

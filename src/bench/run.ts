@@ -54,7 +54,7 @@ export async function runBench(options: BenchOptions = {}): Promise<void> {
     let cells = 0;
     for (let seed = 1; seed <= 3; seed++) {
       const fx = longStroke(L, 1024, seed);
-      const prep = prepareInk(inkEvidence(fx.image));
+      const prep = prepareInk(inkEvidence(fx.image), fx.image);
       const req = { anchors: [fx.start, fx.end] };
       const { ms: m, last } = timeRuns((): FollowResult => followStroke(prep, req), quick ? 3 : 10, 2);
       ms.push(...m);

@@ -60,7 +60,7 @@ export async function runFollow(imagePath: string, args: FollowCliArgs): Promise
   try {
     // The solver's own checks (anchors on one pixel, say) also run before the heavy work.
     validateRequest(band.width, band.height, request);
-    stroke = followStroke(prepareInk(inkEvidence(band, { polarity: plan.polarity })), request);
+    stroke = followStroke(prepareInk(inkEvidence(band, { polarity: plan.polarity }), band, plan.polarity), request);
   } catch (e) {
     if (e instanceof FollowError) throw new UsageError(e.message.replace(/\.$/, ''));
     throw e;

@@ -92,7 +92,8 @@ export function finishedExample(options: SynthOptions | 'demo'): FinishedExample
   // As the worker does it: the file's bytes decoded (so the 8-bit rounding the editor
   // sees is what is traced), then the ink evidence and the solver's preparation.
   const first = images.get(refs[0].file) as Uint8Array;
-  const prep = prepareInk(inkEvidence(decodeImage(first).bands[0]));
+  const band = decodeImage(first).bands[0];
+  const prep = prepareInk(inkEvidence(band), band);
   for (const ts of truth.strokes) {
     const a = ts.samples[0];
     const b = ts.samples[ts.samples.length - 1];

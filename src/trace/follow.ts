@@ -12,6 +12,7 @@ import { DEFAULT_CHORD, DEFAULT_WEIGHTS, type ChordModel, type Weights } from '.
 import { coarsePath } from './coarse.ts';
 import { buildLiftedProblem, decodeState, solveLifted, type LiftedProblem, type LiftedSolution } from './lifted.ts';
 import type { PreparedInk } from './prepare.ts';
+import { measureOnImage } from './measure.ts';
 import { refinePath } from './refine.ts';
 import type { Point, Stroke } from './types.ts';
 
@@ -49,6 +50,11 @@ export interface FollowRequest {
   minRestoredLength?: number;
   /** Skip the sub-pixel refinement (the samples are then the discrete states). */
   discreteOnly?: boolean;
+  /**
+   * Measure each inked sample's width and centre on the image band (measure.ts) when the
+   * prepared ink holds the band. Default true; false keeps the energy's own optimum.
+   */
+  measure?: boolean;
 }
 
 export const DEFAULT_RADIUS: [number, number] = [1.5, 6];
@@ -181,6 +187,24 @@ export function followStroke(prep: PreparedInk, req: FollowRequest, control: Fol
       supportThreshold: req.supportThreshold ?? 0.6,
       minRestoredLength: req.minRestoredLength ?? 3,
     });
+    if (prep.image && req.measure !== false) {
+      // Anchor samples stay exactly where the anchors are; pinned radii stay as pinned.
+      const fixed: number[] = [];
+      const pinned: number[] = [];
+      let from = 0;
+      for (const a of req.anchors) {
+        for (let i = from; i < stroke.samples.length; i++) {
+          const q = stroke.samples[i];
+          if (q.x === a.x && q.y === a.y) {
+            fixed.push(i);
+            if (a.r !== undefined) pinned.push(i);
+            from = i;
+            break;
+          }
+        }
+      }
+      measureOnImage(prep.image, stroke.samples, stroke.restoredSpans, { fixed, pinned, polarity: prep.polarity });
+    }
   }
   const t4 = performance.now();
   let cells = 0;

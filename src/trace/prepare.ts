@@ -17,9 +17,20 @@ export interface PreparedInk {
   readonly coarse: GrayImage;
   /** Buffers reused by successive solves on this image (not thread-safe). */
   readonly workspace: LiftedWorkspace;
+  /** The image band the evidence came from, for measuring widths on it (measure.ts); optional. */
+  readonly image?: GrayImage;
+  /** Whether the ink is darker ('dark', default) or lighter than its ground in `image`. */
+  readonly polarity?: 'dark' | 'light';
 }
 
-export function prepareInk(evidence: InkEvidence): PreparedInk {
+/**
+ * Prepares an image's ink evidence for solving. Pass the band it came from (and its ink
+ * polarity) so that solves measure each stroke's width and centre on the band itself.
+ */
+export function prepareInk(evidence: InkEvidence, image?: GrayImage, polarity: 'dark' | 'light' = 'dark'): PreparedInk {
   const coarse = gaussianBlur(downsample(evidence, COARSE_FACTOR, 'max'), 0.7);
-  return { evidence, coarse, workspace: new LiftedWorkspace() };
+  if (image && (image.width !== evidence.width || image.height !== evidence.height)) {
+    throw new RangeError(`the image band is ${image.width}×${image.height} px but its ink evidence ${evidence.width}×${evidence.height} px`);
+  }
+  return { evidence, coarse, workspace: new LiftedWorkspace(), image, polarity };
 }

@@ -169,7 +169,7 @@ export class EngineHost {
     try {
       const t0 = performance.now();
       const gray = source();
-      const prep = prepareInk(inkEvidence(gray));
+      const prep = prepareInk(inkEvidence(gray), gray);
       // A reloaded image invalidates a preview grown on the old one.
       if (this.images.has(msg.imageId)) this.dropPreview();
       this.images.set(msg.imageId, prep);
