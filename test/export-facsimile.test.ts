@@ -7,12 +7,13 @@ import { Resvg } from '@resvg/resvg-js';
 import { decode } from 'fast-png';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { canDraw, textRings, textWidth } from '../src/export/strokeFont.ts';
 import type { Project } from '../src/doc/model.ts';
 import { finishedExample, type FinishedExample } from '../src/example/finished.ts';
 import { facsimileDrawing } from '../src/export/drawing.ts';
 import { facsimileSvg } from '../src/export/facsimile.ts';
 import { penOutline } from '../src/export/outline.ts';
-import { facsimilePng } from '../src/export/png.ts';
+import { drawingCoverage, facsimilePng } from '../src/export/png.ts';
 import { rasterizeRings } from '../src/export/raster.ts';
 import { ExportError, type ExportInput } from '../src/export/types.ts';
 import { binarize, drd, fMeasure } from '../src/score/binarization.ts';
@@ -177,6 +178,42 @@ describe('facsimilePng', () => {
     const cx = Math.floor((b.x + b.width / 2) * k), cy = Math.floor((b.y + b.height / 2) * k);
     expect(white.data[cy * white.width + cx]).toBeLessThan(40);
     expect(() => facsimilePng(input, { dpi: 0 })).toThrow(ExportError);
+  });
+});
+
+describe('text in the PNG (our line font for digits, strokeFont.ts)', () => {
+  it('draws the scale bar label and the line numbers as ink inside their boxes, and leaves letter labels out', () => {
+    const opts = { dpi: 300, lineNumbers: true, labels: true } as const;
+    const d = facsimileDrawing(input, opts);
+    expect(d.lineNumbers.length).toBeGreaterThan(0);
+    const { width, height, ink } = drawingCoverage(d, 300);
+    const k = (d.scale * 300) / 25.4; // px per drawing mm: 300 dpi, 25.4 mm per inch
+    const inkIn = (x0: number, y0: number, x1: number, y1: number) => {
+      let sum = 0;
+      for (let y = Math.max(0, Math.floor(y0 * k)); y < Math.min(height, Math.ceil(y1 * k)); y++) {
+        for (let x = Math.max(0, Math.floor(x0 * k)); x < Math.min(width, Math.ceil(x1 * k)); x++) sum += ink[y * width + x];
+      }
+      return sum;
+    };
+    for (const t of [d.scaleBar!.label, ...d.lineNumbers]) {
+      expect(canDraw(t.text)).toBe(true);
+      const w = textWidth(t.text, t.size);
+      const x0 = t.anchor === 'start' ? t.x : t.anchor === 'end' ? t.x - w : t.x - w / 2;
+      const pen = 0.05 * t.size;
+      const inside = inkIn(x0 - pen, t.y - 0.7 * t.size - pen, x0 + w + pen, t.y + pen);
+      const rings = textRings(t);
+      const alone = rasterizeRings(rings, width, height, { scale: k });
+      let total = 0;
+      for (const v of alone) total += v;
+      expect(total).toBeGreaterThan(5);
+      expect(inside).toBeGreaterThan(0.9 * total); // the text's ink is where the text is
+    }
+    // Letter labels (any script) have no glyphs here.
+    expect(canDraw('ta')).toBe(false);
+    expect(textRings({ x: 0, y: 0, size: 3, text: 'ab', anchor: 'start' })).toEqual([]);
+    // An '8' holds more ink than a '1' of the same size.
+    const area = (text: string) => rasterizeRings(textRings({ x: 1, y: 5, size: 4, text, anchor: 'start' }), 200, 200, { scale: 20 }).reduce((a, v) => a + v, 0);
+    expect(area('8')).toBeGreaterThan(1.5 * area('1'));
   });
 });
 

@@ -14,7 +14,7 @@ import { buildLiftedProblem, LiftedWorkspace, solveLifted, type LiftedProblem } 
 import { boxDomain } from '../trace/domain.ts';
 import { DEFAULT_CHORD, DEFAULT_WEIGHTS } from '../trace/energy.ts';
 import { createRandom } from '../util/random.ts';
-import { exportBench } from './exportBench.ts';
+import { exampleExportBench, exportBench } from './exportBench.ts';
 import { longStroke } from './fixtures.ts';
 import { fmt, median, percentile, timeRuns } from './stats.ts';
 
@@ -104,6 +104,7 @@ export async function runBench(options: BenchOptions = {}): Promise<void> {
   // 4a. Export: the SVG facsimile of 5,000 strokes.
   log('');
   exportBench(log, quick);
+  await exampleExportBench(log, quick);
 
   // 4. Against a general-purpose graph library on the same lifted graph.
   if (!quick) {

@@ -4,14 +4,16 @@
  * the pHYs chunk says round(dpi / 0.0254) px per metre (PNG specification 11.3.5.3).
  *
  * What the PNG holds: the inked strokes (ink black), the restored spans (slate, dashed
- * edge or fill) and the scale bar. It leaves out the text (letter labels, line numbers,
- * the scale bar's label: a pure-TypeScript rasteriser has no fonts) and the photo.
+ * edge or fill), the scale bar with its label and the line numbers (in a small line font
+ * of digits, strokeFont.ts). It leaves out the letter labels (any script: a
+ * pure-TypeScript rasteriser has no font for them) and the photo.
  */
 import { encode } from 'fast-png';
 import { withPhys } from '../image/codec.ts';
 import { facsimileDrawing, type FacsimileDrawing } from './drawing.ts';
 import type { Ring } from './outline.ts';
 import { dashRings, rasterizeRings } from './raster.ts';
+import { canDraw, textRings } from './strokeFont.ts';
 import { ExportError, type ExportInput, type PngOptions } from './types.ts';
 
 /** Grey levels of ink black #1b1b1f and slate #6b7280 (Rec. 709 luma, rounded). */
@@ -37,6 +39,8 @@ export function drawingCoverage(d: FacsimileDrawing, dpi: number): { width: numb
     const bar: Ring = [b.x, b.y, b.x + b.width, b.y, b.x + b.width, b.y + b.height, b.x, b.y + b.height];
     rasterizeRings([bar], width, height, { scale: k, out: ink });
   }
+  const texts = [...d.lineNumbers, ...(d.scaleBar ? [d.scaleBar.label] : [])].filter((t) => canDraw(t.text));
+  if (texts.length) rasterizeRings(texts.flatMap(textRings), width, height, { scale: k, out: ink });
   const restoredRings = d.restoredStyle === 'grey' ? d.restoredFill : dashRings(d.restoredEdge, d.line.width, d.line.dash, d.line.gap);
   const restored = rasterizeRings(restoredRings, width, height, { scale: k });
   return { width, height, ink, restored };
@@ -45,7 +49,7 @@ export function drawingCoverage(d: FacsimileDrawing, dpi: number): { width: numb
 /**
  * The PNG facsimile of a surface. Options as facsimileSvg's, plus `dpi` (default 300) and
  * `background` ('white': 8-bit grey, black on white, the default; 'transparent': grey and
- * alpha). Text and the photo are not drawn (see above). Throws ExportError for an
+ * alpha). Letter labels and the photo are not drawn (see above). Throws ExportError for an
  * uncalibrated surface or a dpi that is not a positive number.
  */
 export function facsimilePng(input: ExportInput, opts: PngOptions = {}): Uint8Array {
