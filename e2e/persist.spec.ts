@@ -167,7 +167,7 @@ test('after a reload without saving, the restore offer brings the edit back', as
   expect(errors).toEqual([]);
 });
 
-test('opening a file that is not an image, or a truncated PNG, says so and leaves the project alone', async ({ page }) => {
+test('opening a file over unsaved work asks first; a file that is not an image, or a truncated PNG, says so and leaves the project alone', async ({ page }) => {
   const errors = watchErrors(page);
   await page.goto('/');
   await waitForProject(page);
@@ -175,18 +175,33 @@ test('opening a file that is not an image, or a truncated PNG, says so and leave
   const before = await projectJson(page);
   const input = page.getByLabel('Open a project or image');
 
-  await input.setInputFiles({ name: 'notes.txt', mimeType: 'text/plain', buffer: Buffer.from('Line 1: three strokes, then a lacuna.') });
+  // The open project has unsaved strokes: choosing a file asks first, and keeping the work keeps it.
+  const notes = { name: 'notes.txt', mimeType: 'text/plain', buffer: Buffer.from('Line 1: three strokes, then a lacuna.') };
+  const question = page.getByRole('dialog', { name: /has unsaved changes/ });
+  await input.setInputFiles(notes);
+  await expect(question).toContainText('opening notes.txt');
+  await question.getByRole('button', { name: 'Keep my work' }).click();
+  await expect(question).toHaveCount(0);
+  expect(await projectJson(page)).toEqual(before);
+  const openAnyway = async (name: string) => {
+    await question.getByRole('button', { name: `Open ${name}` }).click();
+    await expect(question).toHaveCount(0);
+  };
+  await input.setInputFiles(notes);
+  await openAnyway('notes.txt');
   const alert = page.getByRole('alert');
   await expect(alert).toContainText('Could not open notes.txt: not an image');
   expect(await projectJson(page)).toEqual(before);
 
   const png = Buffer.from(await (await page.request.get('/demo/visible.png')).body());
   await input.setInputFiles({ name: 'cut.png', mimeType: 'image/png', buffer: png.subarray(0, Math.floor(png.length / 2)) });
+  await openAnyway('cut.png');
   await expect(alert).toContainText('Could not open cut.png');
   await expect(alert).toContainText(/truncated/);
   expect(await projectJson(page)).toEqual(before);
 
   await input.setInputFiles({ name: 'old.inkroute', mimeType: 'application/zip', buffer: Buffer.from('PK\u0003\u0004 nothing more') });
+  await openAnyway('old.inkroute');
   await expect(alert).toContainText('Could not open old.inkroute: the project file is damaged');
   expect(await projectJson(page)).toEqual(before);
   // The messages are the page speaking, not errors of the page.

@@ -3,9 +3,10 @@
  * Save downloads NAME.inkroute. Ctrl+O and Ctrl+S do the same. Also installs the
  * window-wide file drop while mounted.
  */
-import { useEffect, useRef } from 'react';
-import { useEditor } from '../store/useEditor.ts';
+import { useEffect, useRef, useState } from 'react';
+import { editorStore, useEditor } from '../store/useEditor.ts';
 import { hasUnsavedWork } from './autosave.ts';
+import { DiscardQuestion } from './DiscardQuestion.tsx';
 import { OpenExampleButton } from './openExample.tsx';
 import { installFileDrop, OPEN_ACCEPT, openFile, saveProjectFile } from './projectIO.ts';
 
@@ -13,8 +14,15 @@ export function FileButtons() {
   const input = useRef<HTMLInputElement>(null);
   const hasProject = useEditor((s) => s.project !== undefined);
   const unsaved = useEditor(hasUnsavedWork);
+  const title = useEditor((s) => s.project?.title);
+  // A file chosen or dropped while there is unsaved work waits for the person's answer.
+  const [waiting, setWaiting] = useState<File | undefined>(undefined);
+  const request = (file: File) => {
+    if (hasUnsavedWork(editorStore.getState())) setWaiting(file);
+    else void openFile(file);
+  };
 
-  useEffect(() => installFileDrop(window), []);
+  useEffect(() => installFileDrop(window, editorStore, (file) => request(file)), []);
 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
@@ -55,9 +63,22 @@ export function FileButtons() {
           const file = e.currentTarget.files?.[0];
           // Cleared so that choosing the same file again still fires a change.
           e.currentTarget.value = '';
-          if (file) void openFile(file);
+          if (file) request(file);
         }}
       />
+      {waiting && (
+        <DiscardQuestion
+          title={title}
+          action={`opening ${waiting.name}`}
+          goLabel={`Open ${waiting.name}`}
+          onKeep={() => setWaiting(undefined)}
+          onGo={() => {
+            const file = waiting;
+            setWaiting(undefined);
+            void openFile(file);
+          }}
+        />
+      )}
     </span>
   );
 }

@@ -5,12 +5,11 @@
  * unsaved work open, it asks first.
  */
 import { useState } from 'react';
-import { createPortal } from 'react-dom';
 import type { EditorStore } from '../store/store.ts';
 import { editorStore, useEditor } from '../store/useEditor.ts';
 import { hasUnsavedWork } from './autosave.ts';
+import { DiscardQuestion } from './DiscardQuestion.tsx';
 import { openProjectFile } from './projectIO.ts';
-import './persist.css';
 
 export const EXAMPLE_FILE = 'finished.inkroute';
 export const EXAMPLE_URL = `${import.meta.env.BASE_URL}examples/${EXAMPLE_FILE}`;
@@ -49,28 +48,14 @@ export function OpenExampleButton() {
       >
         Open finished example
       </button>
-      {/* On the page's body: the top bar's styles (dark buttons, no wrapping) are not the question's. */}
-      {asking && createPortal(
-        <div
-          className="restore-backdrop"
-          onKeyDown={(e) => {
-            e.stopPropagation();
-            if (e.key === 'Escape') setAsking(false);
-          }}
-        >
-          <div className="restore-offer" role="dialog" aria-modal="true" aria-labelledby="open-example-question">
-            <p id="open-example-question">
-              <strong>{title || 'untitled'}</strong> has unsaved changes, which opening the finished example
-              would lose (Save keeps them in a file). Open the example anyway?
-            </p>
-            <div className="restore-buttons">
-              {/* Keeping the work is the safe answer, so it takes the focus. */}
-              <button type="button" autoFocus onClick={() => setAsking(false)}>Keep my work</button>
-              <button type="button" onClick={open}>Open the example</button>
-            </div>
-          </div>
-        </div>,
-        document.body,
+      {asking && (
+        <DiscardQuestion
+          title={title}
+          action="opening the finished example"
+          goLabel="Open the example"
+          onKeep={() => setAsking(false)}
+          onGo={open}
+        />
       )}
     </>
   );

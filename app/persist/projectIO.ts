@@ -132,10 +132,13 @@ export async function openFile(file: File, store: EditorStore = editorStore): Pr
 }
 
 /**
- * Routes files dropped anywhere on the window to openFile (the first file only: the
- * editor holds one project). Returns a function that removes the handlers.
+ * Routes files dropped anywhere on the window to `open` (default openFile; the editor's
+ * buttons ask first when there is unsaved work), the first file only: the editor holds
+ * one project. Returns a function that removes the handlers.
  */
-export function installFileDrop(target: Window = window, store: EditorStore = editorStore): () => void {
+export function installFileDrop(
+  target: Window = window, store: EditorStore = editorStore, open: (file: File) => void = (file) => void openFile(file, store),
+): () => void {
   const hasFiles = (e: DragEvent) => Boolean(e.dataTransfer && [...e.dataTransfer.types].includes('Files'));
   const onDragOver = (e: DragEvent) => {
     if (!hasFiles(e)) return;
@@ -148,7 +151,7 @@ export function installFileDrop(target: Window = window, store: EditorStore = ed
     e.preventDefault();
     const files = e.dataTransfer?.files;
     if (!files || files.length === 0) return;
-    void openFile(files[0], store);
+    open(files[0]);
   };
   target.addEventListener('dragover', onDragOver);
   target.addEventListener('drop', onDrop);
