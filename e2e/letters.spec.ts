@@ -217,3 +217,20 @@ test('Letter: three demo letters by click, Shift+click, button and box; labels, 
   await page.locator('.workspace').screenshot({ path: 'test-results/e2e/letters.png' });
   expect(errors).toEqual([]);
 });
+
+test('a label typed without Enter is kept when the selection moves to another letter', async ({ page }) => {
+  const errors = watchErrors(page);
+  await openEditor(page);
+  await page.getByRole('button', { name: 'Open finished example' }).click();
+  await expect.poll(() => letterCount(page)).toBeGreaterThan(2);
+  await page.keyboard.press('l');
+  const [a, b] = await page.evaluate(() => Object.keys(window.__inkroute!.store.getState().project!.letters).slice(0, 2));
+  await page.evaluate((id) => window.__inkroute!.store.getState().selectLetters([id]), a);
+  const label = page.getByRole('textbox', { name: 'Label', exact: true });
+  await label.fill('zz');
+  // The selection moves by the store (as a click on the photo does): the field is replaced, no blur.
+  await page.evaluate((id) => window.__inkroute!.store.getState().selectLetters([id]), b);
+  await expect.poll(() => page.evaluate((id) => window.__inkroute!.store.getState().project!.letters[id].label, a)).toBe('zz');
+  expect(await page.evaluate((id) => window.__inkroute!.store.getState().project!.letters[id].label, b)).not.toBe('zz');
+  expect(errors).toEqual([]);
+});

@@ -4,7 +4,7 @@
  * the transcription line by line with the Leiden marks, the letters and text marks in
  * reading order, and the inscription's settings. Every edit is one undo step.
  */
-import { useState, type KeyboardEvent } from 'react';
+import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
 import { letterBox } from '../../src/doc/layout.ts';
 import type { Letter, Project, TextMark } from '../../src/doc/model.ts';
 import { deleteLetters, deleteTextMarks, updateLetter, updateTextMark } from '../../src/doc/rules.ts';
@@ -75,7 +75,20 @@ function Palette({ script, onPick }: { script: string; onPick(ch: string): void 
 function LetterFields({ letter, project }: { letter: Letter; project: Project }) {
   const surface = project.surfaces.find((s) => s.id === letter.surfaceId);
   const box = letterBox(project, letter);
+  // What is typed in the Label field and not committed yet: kept when the selection moves
+  // to another letter (the field is replaced without a blur), so no typing is lost.
+  const typed = useRef<{ id: string; value: string } | undefined>(undefined);
+  useEffect(() => {
+    const id = letter.id;
+    return () => {
+      const t = typed.current;
+      typed.current = undefined;
+      const now = editorStore.getState().project?.letters[id];
+      if (t && t.id === id && now && t.value !== now.label) change((p) => (p.letters[id] ? updateLetter(p, id, { label: t.value }) : p));
+    };
+  }, [letter.id]);
   const commitLabel = (v: string) => {
+    typed.current = undefined;
     if (v !== letter.label) change((p) => updateLetter(p, letter.id, { label: v }));
   };
   const commitLine = (input: HTMLInputElement) => {
@@ -102,6 +115,7 @@ function LetterFields({ letter, project }: { letter: Letter; project: Project })
         Label
         <input
           key={`${letter.id}:${letter.label}`} type="text" defaultValue={letter.label} autoComplete="off"
+          onChange={(e) => { typed.current = { id: letter.id, value: e.currentTarget.value }; }}
           onKeyDown={commitKeys(letter.label)} onBlur={(e) => commitLabel(e.currentTarget.value)}
         />
       </label>
