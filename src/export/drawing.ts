@@ -7,9 +7,8 @@
  */
 import { letterBox, textLines } from '../doc/layout.ts';
 import type { ImageRef, Project, Surface } from '../doc/model.ts';
-import { effectiveRestoredSpans } from '../doc/rules.ts';
-import { unionRings } from './letterGeometry.ts';
-import { penOutline, type Ring } from './outline.ts';
+import type { Ring } from './outline.ts';
+import { strokeParts } from './strokeParts.ts';
 import { readingText } from './transcription.ts';
 import { ExportError, type ExportInput, type FacsimileOptions, type RestoredStyle } from './types.ts';
 
@@ -102,22 +101,12 @@ export function facsimileDrawing(input: ExportInput, opts: FacsimileOptions = {}
   for (const id of surface.strokeOrder) {
     const st = project.strokes[id];
     if (!st || st.hidden || st.samples.length === 0) continue;
-    const s = st.samples;
-    const n = s.length;
-    const mark = new Uint8Array(n);
-    for (const sp of effectiveRestoredSpans(st)) {
-      // A restored run takes the steps joining it to its inked neighbours, so the pieces meet.
-      const run = penOutline(s, Math.max(0, sp.from - 1), Math.min(n - 1, sp.to + 1));
-      for (const r of run) restoredPx.push(r);
-      for (const r of unionRings(run)) edgePx.push(r);
-      for (let i = sp.from; i <= sp.to; i++) mark[i] = 1;
-    }
-    for (let i = 0; i < n; i++) {
-      if (mark[i]) continue;
-      let j = i;
-      while (j + 1 < n && !mark[j + 1]) j++;
-      for (const r of penOutline(s, i, j)) inkPx.push(r);
-      i = j;
+    const parts = strokeParts(st);
+    for (const r of parts.inked) inkPx.push(r);
+    // The restored runs come back from clipper as disjoint rings: their edges are the outline.
+    for (const r of parts.restored) {
+      restoredPx.push(r);
+      edgePx.push(r);
     }
   }
   const ink: Ring[] = [];

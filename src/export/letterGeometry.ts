@@ -4,15 +4,14 @@
  * and restored parts, one polygon for a zone, its box in px and mm, and a nonzero-winding
  * rasterizer for masks. Coordinates are surface image pixels (x right, y down).
  */
-import { Clipper, FillRule, type PathD, type PathsD } from 'clipper2-ts';
 import { letterBox, type Box } from '../doc/layout.ts';
 import type { Letter, Project, StrokeDoc, Surface } from '../doc/model.ts';
-import { effectiveRestoredSpans } from '../doc/rules.ts';
+import { differenceRings, intersectRings, ringArea, unionRings } from './clip.ts';
 import { penOutline, type Ring } from './outline.ts';
-import { ExportError } from './types.ts';
+import { strokeParts } from './strokeParts.ts';
 
-/** Decimal places clipper keeps when it unions outlines in px: 0.001 px is far below a pixel. */
-const UNION_PRECISION = 3;
+export { differenceRings, ringArea, unionRings };
+import { ExportError } from './types.ts';
 
 /** A letter with its geometry, px (and mm when its surface is calibrated). */
 export interface LetterShape {
@@ -36,74 +35,6 @@ export interface LetterShape {
   boxMm?: Box;
 }
 
-function toPaths(rings: readonly Ring[]): PathsD {
-  const out: PathsD = [];
-  for (const r of rings) {
-    if (r.length < 6) continue;
-    const path: PathD = [];
-    for (let i = 0; i < r.length; i += 2) path.push({ x: r[i], y: r[i + 1] });
-    out.push(path);
-  }
-  return out;
-}
-
-function fromPaths(paths: PathsD): Ring[] {
-  const out: Ring[] = [];
-  for (const p of paths) {
-    if (p.length < 3) continue;
-    const r: Ring = new Array(p.length * 2);
-    for (let i = 0; i < p.length; i++) {
-      r[2 * i] = p[i].x;
-      r[2 * i + 1] = p[i].y;
-    }
-    out.push(r);
-  }
-  return out;
-}
-
-/** Union of rings under nonzero winding (clipper2), as disjoint outer rings and holes. */
-export function unionRings(rings: readonly Ring[]): Ring[] {
-  if (rings.length === 0) return [];
-  return fromPaths(Clipper.unionD(toPaths(rings), [], FillRule.NonZero, UNION_PRECISION));
-}
-
-/** a minus b, both filled with nonzero winding. */
-export function differenceRings(a: readonly Ring[], b: readonly Ring[]): Ring[] {
-  if (a.length === 0) return [];
-  if (b.length === 0) return unionRings(a);
-  return fromPaths(Clipper.differenceD(toPaths(a), toPaths(b), FillRule.NonZero, UNION_PRECISION));
-}
-
-/** Signed area of a ring (shoelace), px²; the sign depends on orientation. */
-export function ringArea(r: Ring): number {
-  let a = 0;
-  const n = r.length;
-  for (let i = 0, j = n - 2; i < n; j = i, i += 2) a += r[j] * r[i + 1] - r[i] * r[j + 1];
-  return a / 2;
-}
-
-/** Pen outline pieces of one stroke: the inked runs and the restored spans. */
-function strokePieces(st: StrokeDoc, inked: Ring[], restored: Ring[]): void {
-  const s = st.samples;
-  const n = s.length;
-  const spans = effectiveRestoredSpans(st);
-  const mark = new Uint8Array(n);
-  for (const sp of spans) {
-    // A restored span takes the steps joining it to its inked neighbours too, so the inked
-    // and restored pieces meet without a gap.
-    const from = Math.max(0, sp.from - 1), to = Math.min(n - 1, sp.to + 1);
-    for (const r of penOutline(s, from, to)) restored.push(r);
-    for (let i = sp.from; i <= sp.to; i++) mark[i] = 1;
-  }
-  for (let i = 0; i < n; i++) {
-    if (mark[i]) continue;
-    let j = i;
-    while (j + 1 < n && !mark[j + 1]) j++;
-    for (const r of penOutline(s, i, j)) inked.push(r);
-    i = j;
-  }
-}
-
 /** The geometry of a letter; undefined when none of its strokes has a sample. */
 export function letterShape(project: Project, letter: Letter): LetterShape | undefined {
   const surfaceIndex = project.surfaces.findIndex((s) => s.id === letter.surfaceId);
@@ -114,10 +45,15 @@ export function letterShape(project: Project, letter: Letter): LetterShape | und
   if (strokes.length === 0 || !boxPx) return undefined;
   const inkedRaw: Ring[] = [];
   const restoredRaw: Ring[] = [];
-  for (const st of strokes) strokePieces(st, inkedRaw, restoredRaw);
+  for (const st of strokes) {
+    const parts = strokeParts(st);
+    for (const r of parts.inked) inkedRaw.push(r);
+    for (const r of parts.restored) restoredRaw.push(r);
+  }
   const inked = unionRings(inkedRaw);
   const restored = restoredRaw.length ? differenceRings(restoredRaw, inked) : [];
-  const outline = restoredRaw.length ? unionRings([...inkedRaw, ...restoredRaw]) : inked;
+  // The whole pen's union, restored spans included, cut nowhere: where the letter lies.
+  const outline = restoredRaw.length ? unionRings(strokes.flatMap((st) => penOutline(st.samples))) : inked;
   const k = surface.pxPerMm;
   const shape: LetterShape = { letter, surface, surfaceIndex, strokes, outline, inked, restored, boxPx };
   if (k && k > 0) {
@@ -185,7 +121,7 @@ export function letterPolygon(outline: readonly Ring[], clip?: Box): Ring {
   let rings: Ring[] = outline.slice();
   if (clip) {
     const rect: Ring = [clip[0], clip[1], clip[2], clip[1], clip[2], clip[3], clip[0], clip[3]];
-    rings = fromPaths(Clipper.intersectD(toPaths(rings), toPaths([rect]), FillRule.NonZero, UNION_PRECISION));
+    rings = intersectRings(rings, [rect]);
   }
   if (rings.length === 0) return [];
   // Outer rings have the orientation of the largest ring (clipper gives holes the other one).
