@@ -96,18 +96,22 @@ describe('inkroute export (spawned)', () => {
     const sub = 'options';
     makeDir(sub);
     const kinds: ExportKind[] = ['svg', 'png', 'letters'];
-    const flags = ['--scale', '2', '--restored', 'grey', '--labels', '--line-numbers', '--photo', '--dpi', '150', '--transparent', '--margin', '1', '--surface', 'recto'];
+    const flags = ['--scale', '2', '--scale-bar', '50', '--restored', 'grey', '--labels', '--line-numbers', '--photo', '--dpi', '150', '--transparent', '--margin', '1', '--surface', 'recto'];
     const r = inkroute('export', projectPath, ...outArgs(sub, kinds), ...flags);
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const bundle = readProjectFile(bytes);
     const options = {
-      facsimile: { scale: 2, restoredStyle: 'grey' as const, labels: true, lineNumbers: true, photoImageId: 'i-visible' },
-      png: { scale: 2, restoredStyle: 'grey' as const, labels: true, lineNumbers: true, photoImageId: 'i-visible', dpi: 150, background: 'transparent' as const },
+      facsimile: { scale: 2, scaleBarMm: 50, restoredStyle: 'grey' as const, labels: true, lineNumbers: true, photoImageId: 'i-visible' },
+      png: { scale: 2, scaleBarMm: 50, restoredStyle: 'grey' as const, labels: true, lineNumbers: true, photoImageId: 'i-visible', dpi: 150, background: 'transparent' as const },
       letters: { margin: 1 },
     };
     const want = exportFiles(exportInputFromBundle(bundle, 'recto'), kinds, options);
     for (const k of kinds) expect(Buffer.from(want.get(EXPORT_FILES[k])!).equals(readFileSync(join(dir, sub, OUT_NAMES[k]))), k).toBe(true);
+    // The scale bar asked for: exactly 50 mm long in the viewBox's mm, with its label.
+    const svgText = readFileSync(join(dir, sub, 'f.svg'), 'utf8');
+    expect(svgText).toMatch(/<rect [^>]*width="50"/);
+    expect(svgText).toContain('>50 mm</text>');
     // The options differ from the defaults: the SVG is not the plain one.
     expect(readFileSync(join(dir, sub, 'f.svg')).equals(readFileSync(join(dir, 'plain', 'f.svg')))).toBe(false);
   });
@@ -160,6 +164,8 @@ describe('export arguments', () => {
     expect(usage(() => parseExportArgs({ letters: 'l.zip', margin: '-1' }))).toBe('--margin must be zero or more, got "-1"');
     expect(usage(() => parseExportArgs({ svg: 'a.svg', restored: 'dotted' }))).toBe('--restored must be one of dashed, grey, got "dotted"');
     expect(usage(() => parseExportArgs({ svg: 'a.svg', scale: '-2' }))).toBe('--scale must be above 0, got "-2"');
+    expect(usage(() => parseExportArgs({ svg: 'a.svg', scaleBar: '-5' }))).toBe('--scale-bar must be 0 or more, got "-5"');
+    expect(parseExportArgs({ svg: 'a.svg', scaleBar: '0' }).scaleBar).toBe(0);
   });
   it('maps --photo to a band of the surface, and --surface to a surface by name', () => {
     const bundle = readProjectFile(bytes);

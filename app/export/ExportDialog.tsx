@@ -23,10 +23,14 @@ const PREVIEW_DEBOUNCE_MS = 150;
 const KINDS = Object.keys(EXPORT_FILES) as ExportKind[];
 const SCALES = [1, 2, 5] as const;
 const DPIS = [300, 600, 1200] as const;
+/** Scale bar lengths offered, mm. */
+const SCALE_BARS = [10, 20, 50, 100] as const;
 
 /** What the person chose in the dialog. */
 export interface ExportChoices {
   scale: number;
+  /** Scale bar length, mm; 0 for none; undefined for the default length. */
+  scaleBarMm: number | undefined;
   restoredStyle: RestoredStyle;
   labels: boolean;
   lineNumbers: boolean;
@@ -39,13 +43,14 @@ export interface ExportChoices {
 }
 
 export const DEFAULT_CHOICES: ExportChoices = {
-  scale: 1, restoredStyle: 'dashed', labels: false, lineNumbers: false, photoImageId: '', dpi: 300, transparent: false, margin: '2',
+  scale: 1, scaleBarMm: undefined, restoredStyle: 'dashed', labels: false, lineNumbers: false, photoImageId: '', dpi: 300, transparent: false, margin: '2',
 };
 
 /** The facsimile options of the choices (the preview's and the SVG's). */
 export function facsimileOptionsOf(c: ExportChoices): FacsimileOptions {
   const o: FacsimileOptions = { scale: c.scale, restoredStyle: c.restoredStyle, labels: c.labels, lineNumbers: c.lineNumbers };
   if (c.photoImageId) o.photoImageId = c.photoImageId;
+  if (c.scaleBarMm !== undefined) o.scaleBarMm = c.scaleBarMm;
   return o;
 }
 
@@ -284,6 +289,17 @@ function ExportDialogBody({ onClose }: { onClose(): void }) {
                 Scale{' '}
                 <select value={choices.scale} onChange={(e) => set({ scale: Number(e.target.value) })}>
                   {SCALES.map((s) => <option key={s} value={s}>{`${s}:1`}</option>)}
+                </select>
+              </label>
+              <label>
+                Scale bar{' '}
+                <select
+                  value={choices.scaleBarMm === undefined ? 'auto' : String(choices.scaleBarMm)}
+                  onChange={(e) => set({ scaleBarMm: e.target.value === 'auto' ? undefined : Number(e.target.value) })}
+                >
+                  <option value="auto">about a fifth of the width</option>
+                  {SCALE_BARS.map((mm) => <option key={mm} value={String(mm)}>{mm} mm</option>)}
+                  <option value="0">none</option>
                 </select>
               </label>
               <div role="radiogroup" aria-label="Restored spans" className="export-radios">

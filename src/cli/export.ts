@@ -24,6 +24,7 @@ export interface ExportArgs {
   dpi?: string;
   transparent?: boolean;
   scale?: string;
+  scaleBar?: string;
   restored?: string;
   labels?: boolean;
   lineNumbers?: boolean;
@@ -40,6 +41,8 @@ export interface ExportPlan {
   /** Export kind → the file to write it to. */
   outputs: Map<ExportKind, string>;
   scale?: number;
+  /** Scale bar length, mm; 0 for none; undefined for the default. */
+  scaleBar?: number;
   restored?: 'dashed' | 'grey';
   labels: boolean;
   lineNumbers: boolean;
@@ -54,6 +57,12 @@ export interface ExportPlan {
 function positive(text: string, what: string): number {
   const v = parseNumber(text, what);
   if (!(v > 0)) throw new UsageError(`${what} must be above 0, got "${text}"`);
+  return v;
+}
+
+function notNegative(text: string, what: string): number {
+  const v = parseNumber(text, what);
+  if (!(v >= 0)) throw new UsageError(`${what} must be 0 or more, got "${text}"`);
   return v;
 }
 
@@ -90,6 +99,7 @@ export function parseExportArgs(args: ExportArgs): ExportPlan {
   return {
     outputs,
     scale: args.scale === undefined ? undefined : positive(args.scale, '--scale'),
+    scaleBar: args.scaleBar === undefined ? undefined : notNegative(args.scaleBar, '--scale-bar'),
     restored,
     labels: Boolean(args.labels),
     lineNumbers: Boolean(args.lineNumbers),
@@ -114,6 +124,7 @@ export function pickSurface(bundle: ProjectBundle, name: string | undefined): st
 export function exportOptions(plan: ExportPlan, bundle: ProjectBundle, surfaceId: string): ExportOptions {
   const facsimile: ExportOptions['facsimile'] = {};
   if (plan.scale !== undefined) facsimile.scale = plan.scale;
+  if (plan.scaleBar !== undefined) facsimile.scaleBarMm = plan.scaleBar;
   if (plan.restored !== undefined) facsimile.restoredStyle = plan.restored;
   if (plan.labels) facsimile.labels = true;
   if (plan.lineNumbers) facsimile.lineNumbers = true;

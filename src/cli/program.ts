@@ -83,6 +83,7 @@ export function createProgram(): Command {
     .option('--tei <file>', 'the transcription as TEI XML')
     .option('--annotations <file>', 'the letters as W3C Web Annotations, JSON-LD')
     .option('--scale <n>', 'drawing size against the object: 1 is 1:1, 2 is 2:1 (default 1)')
+    .option('--scale-bar <mm>', 'length of the scale bar, mm; 0 for none (default a round length near a fifth of the width)')
     .option('--restored <style>', 'restored spans drawn dashed (default) or grey')
     .option('--labels', 'letter labels beside their letters')
     .option('--line-numbers', 'line numbers in the margin')
