@@ -255,6 +255,11 @@ describe('EngineClient over the loopback port', () => {
     expect(png.length).toBeGreaterThan(100); // the caller's bytes are kept (a copy travelled)
     await expect(client.loadImageFile('bad', png.slice(0, 60))).rejects.toThrow(/PNG|image|truncated|decode/i);
     await expect(client.loadImageFile('band', png, 1)).rejects.toThrow('the image has 1 band(s), not a band 2.');
+    // A probe decodes to check and reads the header figures, keeping nothing.
+    const tagged = encodeGrayPng(createGray(W, H, l), { pxPerMm: 12.5 });
+    expect(await client.probeImageFile(tagged)).toEqual({ format: 'png', width: W, height: H, bands: 1, bitDepth: 8, pxPerMm: 12.5 });
+    await expect(client.probeImageFile(new Uint8Array([1, 2, 3, 4]))).rejects.toThrow('not an image: the file is neither PNG nor JPEG.');
+    await expect(client.probeImageFile(tagged.slice(0, 80))).rejects.toThrow(/truncated/);
     client.dispose();
   });
 

@@ -5,6 +5,7 @@
  */
 import type { Anchor, SolverSettings } from '../../src/doc/model.ts';
 import type { Point, Stroke, StrokeSample } from '../../src/trace/types.ts';
+import type { ImageProbe } from '../../src/worker/protocol.ts';
 
 export interface SolveResult {
   stroke: Stroke;
@@ -20,6 +21,8 @@ export interface EngineBridge {
    * (default 0) off the page's thread and computes its ink evidence; the caller keeps its bytes.
    */
   loadImageFile(imageId: string, bytes: Uint8Array, band?: number): Promise<void>;
+  /** Decodes an image file off the page's thread to check it and read its size, depth and resolution tag. */
+  probeImageFile(bytes: Uint8Array): Promise<ImageProbe>;
   /** Starts growing a preview tree from `start`; replaces any earlier one. */
   startPreview(imageId: string, start: Point, settings: SolverSettings): void;
   /**

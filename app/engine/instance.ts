@@ -10,6 +10,11 @@ export function setEngine(e: EngineBridge): void {
   engine = e;
 }
 
+/** The engine when one is registered (the page, tests that set one); undefined otherwise. */
+export function engineIfStarted(): EngineBridge | undefined {
+  return engine;
+}
+
 export function getEngine(): EngineBridge {
   if (!engine) throw new Error('the engine is not started yet');
   return engine;

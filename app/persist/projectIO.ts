@@ -8,6 +8,8 @@ import { newProject } from '../../src/doc/rules.ts';
 import { decodeImage, sniffFormat } from '../../src/image/codec.ts';
 import type { EditorStore } from '../store/store.ts';
 import { editorStore } from '../store/useEditor.ts';
+import { engineIfStarted } from '../engine/instance.ts';
+import type { ImageProbe } from '../../src/worker/protocol.ts';
 
 /** File name extension of project files. */
 export const PROJECT_EXTENSION = '.inkroute';
@@ -85,16 +87,35 @@ function titleFromFileName(name: string): string {
 }
 
 /**
+ * Decodes a photo to check it: in the engine's worker when the editor runs (a 24 MP file
+ * takes seconds, which the page must not spend), on this thread where there is no engine
+ * (Node tests).
+ */
+async function probeImage(bytes: Uint8Array): Promise<ImageProbe> {
+  const engine = engineIfStarted();
+  if (engine) return engine.probeImageFile(bytes);
+  const d = decodeImage(bytes);
+  return { format: d.format, width: d.bands[0].width, height: d.bands[0].height, bands: d.bands.length, bitDepth: d.bitDepth, pxPerMm: d.pxPerMm };
+}
+
+let openCount = 0;
+
+/**
  * Opens a photo (PNG or JPEG) as a new project with that image as its recto. The file is
- * decoded first to check it and read its size, bit depth and scale (the resolution tag);
- * a bad, truncated or foreign file gives a message and the open project stays.
+ * decoded first (off the page's thread) to check it and read its size, bit depth and scale
+ * (the resolution tag); meanwhile the status strip shows the job, which can be cancelled.
+ * A bad, truncated or foreign file gives a message and the open project stays.
  */
 export async function openImageFile(file: File, store: EditorStore = editorStore): Promise<boolean> {
+  const job = `open-image-${++openCount}`;
+  let cancelled = false;
+  store.getState().setJob(job, { label: `Opening ${file.name}…`, cancel: () => { cancelled = true; store.getState().setJob(job, undefined); } });
   try {
     const bytes = await bytesOf(file);
-    const decoded = decodeImage(bytes);
+    const decoded = await probeImage(bytes);
+    if (cancelled) return false;
     const kind = sniffFormat(bytes) === 'jpeg' ? 'jpeg' : 'png';
-    const band = decoded.bands[0];
+    const band = decoded;
     const path = `images/visible.${kind === 'jpeg' ? 'jpg' : 'png'}`;
     const project = newProject(titleFromFileName(file.name), {
       band: 'visible',
@@ -111,8 +132,10 @@ export async function openImageFile(file: File, store: EditorStore = editorStore
     message(store, 'info', `Opened ${file.name} (${band.width}×${band.height} px, ${decoded.bitDepth} bit, ${scale}).`);
     return true;
   } catch (e) {
-    message(store, 'error', `Could not open ${file.name}: ${(e as Error).message}`);
+    if (!cancelled) message(store, 'error', `Could not open ${file.name}: ${(e as Error).message}`);
     return false;
+  } finally {
+    store.getState().setJob(job, undefined);
   }
 }
 

@@ -9,7 +9,7 @@
  */
 import type { Anchor, SolverSettings } from '../doc/model.ts';
 import type { Point, Stroke, StrokeSample } from '../trace/types.ts';
-import type { EngineReply, EngineRequest } from './protocol.ts';
+import type { EngineReply, EngineRequest, ImageProbe } from './protocol.ts';
 
 /** A two-way message channel to an EngineHost. */
 export interface EnginePort {
@@ -65,6 +65,16 @@ export class EngineClient {
   loadImageFile(imageId: string, bytes: Uint8Array, band = 0): Promise<void> {
     const copy = bytes.slice();
     return this.call({ type: 'load-file', id: 0, imageId, bytes: copy, band }, [copy.buffer as ArrayBuffer]).then(() => undefined);
+  }
+
+  /** Decodes an image file in the engine to check it and read its figures; a bad file rejects with the decoder's message. */
+  probeImageFile(bytes: Uint8Array): Promise<ImageProbe> {
+    const copy = bytes.slice();
+    return this.call({ type: 'probe-file', id: 0, bytes: copy }, [copy.buffer as ArrayBuffer]).then((r) => {
+      if (r.type !== 'probed') throw new Error(`internal: answer ${r.type} to a probe request`);
+      const { type: _t, id: _i, ...probe } = r;
+      return probe;
+    });
   }
 
   evidence(imageId: string): Promise<{ width: number; height: number; data: Uint8ClampedArray }> {

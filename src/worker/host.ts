@@ -11,7 +11,7 @@ import { createGray, type GrayImage } from '../image/gray.ts';
 import { inkEvidence } from '../ink/index.ts';
 import { followStroke, prepareInk, startPreview, type PreparedInk, type PreviewTree, type Stroke, type StrokeSample } from '../trace/index.ts';
 import type {
-  EngineReply, EngineRequest, LoadFileRequest, LoadImageRequest, PostReply, PreviewPathRequest, SolveRequest,
+  EngineReply, EngineRequest, ImageProbe, LoadFileRequest, LoadImageRequest, PostReply, PreviewPathRequest, SolveRequest,
 } from './protocol.ts';
 
 export interface EngineHostOptions {
@@ -77,6 +77,16 @@ export class EngineHost {
         return;
       case 'load-file':
         this.loadFile(msg);
+        return;
+      case 'probe-file':
+        try {
+          const d = decodeImage(msg.bytes);
+          const probe: ImageProbe = { format: d.format, width: d.bands[0].width, height: d.bands[0].height, bands: d.bands.length, bitDepth: d.bitDepth };
+          if (d.pxPerMm !== undefined) probe.pxPerMm = d.pxPerMm;
+          this.send({ type: 'probed', id: msg.id, ...probe }, []);
+        } catch (e) {
+          this.fail(msg.id, undefined, (e as Error).name, (e as Error).message);
+        }
         return;
       case 'evidence': {
         const prep = this.images.get(msg.imageId);

@@ -34,6 +34,14 @@ export interface LoadFileRequest {
   band?: number;
 }
 
+/** Decodes an image file to check it and read its header figures; answered by 'probed'. Nothing is kept. */
+export interface ProbeFileRequest {
+  type: 'probe-file';
+  id: number;
+  /** The file's bytes; transferred. */
+  bytes: Uint8Array;
+}
+
 /** Asks for the ink evidence of a loaded image as 8-bit values; answered by 'evidence'. */
 export interface EvidenceRequest {
   type: 'evidence';
@@ -85,7 +93,7 @@ export interface CancelRequest {
 }
 
 export type EngineRequest =
-  | LoadImageRequest | LoadFileRequest | EvidenceRequest | PreviewStartRequest | PreviewPathRequest
+  | LoadImageRequest | LoadFileRequest | ProbeFileRequest | EvidenceRequest | PreviewStartRequest | PreviewPathRequest
   | PreviewStopRequest | SolveRequest | CancelRequest;
 
 export interface LoadedReply {
@@ -94,6 +102,22 @@ export interface LoadedReply {
   imageId: string;
   /** Time to compute the ink evidence and the solver's preparation, ms. */
   ms: number;
+}
+
+/** What a decoded file is: its size, bands, bit depth and the scale of its resolution tag. */
+export interface ImageProbe {
+  format: 'png' | 'jpeg';
+  width: number;
+  height: number;
+  bands: number;
+  bitDepth: number;
+  /** From the file's resolution tag (PNG pHYs, JPEG JFIF density), px per mm. */
+  pxPerMm?: number;
+}
+
+export interface ProbedReply extends ImageProbe {
+  type: 'probed';
+  id: number;
 }
 
 export interface EvidenceReply {
@@ -133,7 +157,7 @@ export interface ErrorReply {
   message: string;
 }
 
-export type EngineReply = LoadedReply | EvidenceReply | PreviewPathReply | SolvedReply | ErrorReply;
+export type EngineReply = LoadedReply | ProbedReply | EvidenceReply | PreviewPathReply | SolvedReply | ErrorReply;
 
 /** Sends one message, handing over the listed buffers. */
 export type PostReply = (reply: EngineReply, transfer: ArrayBuffer[]) => void;
