@@ -6,7 +6,10 @@ import { expect, test, type Download, type Page } from '@playwright/test';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { decode as decodePng, encode as encodePng } from 'fast-png';
 import { strFromU8, unzipSync } from 'fflate';
-import { fmt, openEditor, toScreen, traceStroke, truthStroke, watchErrors, type Pt, type StrokeDoc, type Truth } from './helpers.ts';
+import {
+  clickPoint, fmt, frameBox, openEditor, projectJson, toScreen, traceStroke, truthStroke, waitForProject, watchErrors, type StrokeDoc, type Truth,
+} from './helpers.ts';
+import { pngPhys } from '../test/helpers/png.ts';
 
 /**
  * Exports from the editor, in a real browser: the finished example's six files saved from
@@ -29,14 +32,6 @@ type Hook = {
 };
 
 const FILES = ['facsimile.svg', 'facsimile.png', 'letters.zip', 'chart.svg', 'transcription.tei.xml', 'annotations.jsonld'] as const;
-
-async function waitForProject(page: Page): Promise<void> {
-  await page.waitForFunction(() => Boolean((window as unknown as { __inkroute?: Hook }).__inkroute?.store.getState().project));
-}
-
-function projectJson(page: Page): Promise<any> {
-  return page.evaluate(() => JSON.parse(JSON.stringify((window as unknown as { __inkroute: Hook }).__inkroute.store.getState().project)));
-}
 
 /** Opens the finished example with the top-bar button and waits until it is the open project. */
 async function openFinishedExample(page: Page): Promise<any> {
@@ -64,20 +59,6 @@ async function saveFromDialog(page: Page, name: string, dir: string): Promise<{ 
   const path = join(dir, download.suggestedFilename());
   await download.saveAs(path);
   return { download, bytes: readFileSync(path) };
-}
-
-/** The pHYs chunk of a PNG, read chunk by chunk (PNG specification, 11.3.5.3): px per unit and the unit. */
-function pngPhys(bytes: Uint8Array): { x: number; y: number; unit: number } | undefined {
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  // After the 8-byte signature: length (4), type (4), data, CRC (4).
-  for (let at = 8; at + 8 <= bytes.length;) {
-    const length = view.getUint32(at);
-    const type = String.fromCharCode(...bytes.subarray(at + 4, at + 8));
-    if (type === 'pHYs') return { x: view.getUint32(at + 8), y: view.getUint32(at + 12), unit: bytes[at + 16] };
-    if (type === 'IDAT' || type === 'IEND') return undefined;
-    at += 12 + length;
-  }
-  return undefined;
 }
 
 /** Checks one export file's content by its kind; throws on anything wrong. */
@@ -265,32 +246,6 @@ test('a title with markup exports an SVG that shows it as text and runs no scrip
   await viewer.close();
   expect(errors).toEqual([]);
 });
-
-/** Frames an image box on the canvas, at a zoom of at most 3. */
-async function frameBox(page: Page, box: [number, number, number, number], margin = 40): Promise<void> {
-  await page.evaluate(([x0, y0, x1, y1, m]) => {
-    const hook = window.__inkroute!;
-    const { width, height } = hook.canvasBox();
-    const zoom = Math.min(3, width / (x1 - x0 + 2 * m), height / (y1 - y0 + 2 * m));
-    hook.store.getState().setView({ zoom, panX: width / 2 - ((x0 + x1) / 2) * zoom, panY: height / 2 - ((y0 + y1) / 2) * zoom });
-  }, [...box, margin] as const);
-}
-
-/** The sample of `stroke` farthest from every other traced stroke: a click there picks it alone. */
-function clickPoint(stroke: StrokeDoc, others: StrokeDoc[]): Pt {
-  const s = stroke.samples;
-  let best = s[Math.floor(s.length / 2)];
-  let bestD = -1;
-  for (let i = Math.floor(s.length * 0.15); i < Math.ceil(s.length * 0.85); i++) {
-    let d = Infinity;
-    for (const o of others) for (const q of o.samples) d = Math.min(d, Math.hypot(q.x - s[i].x, q.y - s[i].y) - q.r);
-    if (d > bestD) {
-      bestD = d;
-      best = s[i];
-    }
-  }
-  return { x: best.x, y: best.y };
-}
 
 test('the whole way on the demo: calibrate on the ruler, trace and make three letters, export every file from the dialog', async ({ page }, testInfo) => {
   test.setTimeout(240_000);

@@ -2,39 +2,19 @@
  * What the end-to-end tests share: opening the editor on the demo, framing and tracing
  * a stroke with the Follow tool as a person would (click the start, move along, click the
  * end, Enter), distances to ground truth, and percentiles. The page is reached through
- * `window.__inkroute` (app/testHook.ts), typed loosely here: e2e imports nothing of the app.
+ * `window.__inkroute` (app/testHook.ts); the stored stroke is typed loosely here. Types of
+ * the ground truth come from src/synth.
  */
 import { expect, type Page } from '@playwright/test';
+import type { InscriptionTruth as Truth, TruthStroke } from '../src/synth/types.ts';
 import { distToPolyline } from '../test/helpers/render.ts';
 
 export interface Pt {
   x: number;
   y: number;
 }
-export interface TruthStroke {
-  id: string;
-  samples: { x: number; y: number; r: number }[];
-  gaps: { from: number; to: number }[];
-}
-export interface TruthLetter {
-  id: string;
-  name: string;
-  line: number;
-  order: number;
-  strokeIds: string[];
-  /** [x0, y0, x1, y1], px. */
-  box: [number, number, number, number];
-}
-export interface Truth {
-  title: string;
-  pxPerMm: number;
-  width: number;
-  height: number;
-  strokes: TruthStroke[];
-  /** The ruler drawn on the photo: its ends, px, and its length, mm. */
-  ruler: { x0: number; y0: number; x1: number; y1: number; mm: number };
-  letters: TruthLetter[];
-}
+/** The demo's ground truth and its parts: the synthesiser's own types (src/synth/types.ts). */
+export type { InscriptionTruth as Truth, TruthLetter, TruthStroke } from '../src/synth/types.ts';
 export interface Sample {
   x: number;
   y: number;
@@ -206,3 +186,47 @@ export function percentile(values: readonly number[], p: number): number {
 }
 
 export const fmt = (v: number, d = 1) => (Number.isFinite(v) ? v.toFixed(d) : String(v));
+
+/** Waits for the page to have a project open (the demo, a restored or an opened one). */
+export async function waitForProject(page: Page): Promise<void> {
+  await page.waitForFunction(() => Boolean(window.__inkroute?.store.getState().project));
+}
+
+/** The open project as plain JSON. */
+export function projectJson(page: Page): Promise<any> {
+  return page.evaluate(() => JSON.parse(JSON.stringify(window.__inkroute!.store.getState().project)));
+}
+
+/** Frames an image box on the canvas, at a zoom of at most 3. */
+export async function frameBox(page: Page, box: [number, number, number, number], margin = 40): Promise<void> {
+  await page.evaluate(([x0, y0, x1, y1, m]) => {
+    const hook = window.__inkroute!;
+    const { width, height } = hook.canvasBox();
+    const zoom = Math.min(3, width / (x1 - x0 + 2 * m), height / (y1 - y0 + 2 * m));
+    hook.store.getState().setView({ zoom, panX: width / 2 - ((x0 + x1) / 2) * zoom, panY: height / 2 - ((y0 + y1) / 2) * zoom });
+  }, [...box, margin] as const);
+}
+
+/** A point on a traced stroke far from every other traced stroke: a click there picks that stroke alone. */
+export function clickPoint(stroke: StrokeDoc, others: StrokeDoc[]): Pt {
+  const s = stroke.samples;
+  let best = s[Math.floor(s.length / 2)];
+  let bestD = -1;
+  for (let i = Math.floor(s.length * 0.15); i < Math.ceil(s.length * 0.85); i++) {
+    let d = Infinity;
+    for (const o of others) for (const q of o.samples) d = Math.min(d, Math.hypot(q.x - s[i].x, q.y - s[i].y) - q.r);
+    if (d > bestD) {
+      bestD = d;
+      best = s[i];
+    }
+  }
+  return { x: best.x, y: best.y };
+}
+
+/** Clicks an image point on the canvas, with Shift held when `shift`. */
+export async function clickImage(page: Page, p: Pt, shift = false): Promise<void> {
+  const s = await toScreen(page, p);
+  if (shift) await page.keyboard.down('Shift');
+  await page.mouse.click(s.x, s.y);
+  if (shift) await page.keyboard.up('Shift');
+}

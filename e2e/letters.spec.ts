@@ -7,7 +7,9 @@
  * Undo and redo of making a letter. The figures are printed.
  */
 import { expect, test, type Page } from '@playwright/test';
-import { fmt, openEditor, toScreen, traceStroke, truthStroke, watchErrors, type Pt, type StrokeDoc, type Truth } from './helpers.ts';
+import {
+  clickImage, clickPoint, fmt, frameBox, openEditor, toScreen, traceStroke, truthStroke, watchErrors, type StrokeDoc, type Truth,
+} from './helpers.ts';
 
 /** Three neighbouring letters of the demo's first line, two strokes each. */
 const LETTERS = ['L1.2', 'L1.3', 'L1.4'];
@@ -18,39 +20,6 @@ function historyLength(page: Page): Promise<number> {
 
 function letterCount(page: Page): Promise<number> {
   return page.evaluate(() => Object.keys(window.__inkroute!.store.getState().project!.letters).length);
-}
-
-/** Frames an image box on the canvas, at a zoom of at most 3. */
-async function frameBox(page: Page, box: [number, number, number, number], margin = 40): Promise<void> {
-  await page.evaluate(([x0, y0, x1, y1, m]) => {
-    const hook = window.__inkroute!;
-    const { width, height } = hook.canvasBox();
-    const zoom = Math.min(3, width / (x1 - x0 + 2 * m), height / (y1 - y0 + 2 * m));
-    hook.store.getState().setView({ zoom, panX: width / 2 - ((x0 + x1) / 2) * zoom, panY: height / 2 - ((y0 + y1) / 2) * zoom });
-  }, [...box, margin] as const);
-}
-
-/** A point on a traced stroke far from every other traced stroke: a click there picks that stroke alone. */
-function clickPoint(stroke: StrokeDoc, others: StrokeDoc[]): Pt {
-  const s = stroke.samples;
-  let best = s[Math.floor(s.length / 2)];
-  let bestD = -1;
-  for (let i = Math.floor(s.length * 0.15); i < Math.ceil(s.length * 0.85); i++) {
-    let d = Infinity;
-    for (const o of others) for (const q of o.samples) d = Math.min(d, Math.hypot(q.x - s[i].x, q.y - s[i].y) - q.r);
-    if (d > bestD) {
-      bestD = d;
-      best = s[i];
-    }
-  }
-  return { x: best.x, y: best.y };
-}
-
-async function clickImage(page: Page, p: Pt, shift = false): Promise<void> {
-  const s = await toScreen(page, p);
-  if (shift) await page.keyboard.down('Shift');
-  await page.mouse.click(s.x, s.y);
-  if (shift) await page.keyboard.up('Shift');
 }
 
 test('Calibrate along the demo ruler: the scale matches the true scale within 1 %, bad input changes nothing', async ({ page }) => {

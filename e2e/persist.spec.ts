@@ -1,4 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
+import { projectJson, waitForProject, watchErrors } from './helpers.ts';
 
 /**
  * Saving and opening, in a real browser: a project file round-trips stroke for stroke,
@@ -16,24 +17,6 @@ type Hook = {
     };
   };
 };
-
-function watchErrors(page: Page): string[] {
-  const errors: string[] = [];
-  page.on('console', (msg) => {
-    if (msg.type() === 'error') errors.push(msg.text());
-  });
-  page.on('pageerror', (e) => errors.push(e.message));
-  return errors;
-}
-
-/** Waits for the page to have a project open (the demo, a restored or an opened one). */
-async function waitForProject(page: Page): Promise<void> {
-  await page.waitForFunction(() => Boolean((window as unknown as { __inkroute?: Hook }).__inkroute?.store.getState().project));
-}
-
-async function projectJson(page: Page): Promise<any> {
-  return page.evaluate(() => JSON.parse(JSON.stringify((window as unknown as { __inkroute: Hook }).__inkroute.store.getState().project)));
-}
 
 /**
  * Adds `count` strokes to the first surface, straight into the store (one change), with

@@ -4,37 +4,19 @@
  * exportFiles() gives in process, and one clear line with a non-zero exit for bad input,
  * with nothing written.
  */
-import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { unzipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { exportOptions, parseExportArgs, pickSurface } from '../src/cli/export.ts';
-import { UsageError } from '../src/cli/errors.ts';
 import { parseSynthArgs } from '../src/cli/synth.ts';
 import { readProjectFile, writeProjectFile } from '../src/doc/projectFile.ts';
 import { exampleProjectId, finishedExample } from '../src/example/finished.ts';
 import { exportFiles, exportInputFromBundle } from '../src/export/exportFiles.ts';
 import { EXPORT_FILES, ExportError, type ExportKind } from '../src/export/types.ts';
 import { testSetRecipe } from '../src/synth/index.ts';
-
-const BIN = fileURLToPath(new URL('../bin/inkroute.js', import.meta.url));
-
-function inkroute(...args: string[]) {
-  const r = spawnSync(process.execPath, [BIN, ...args], { encoding: 'utf8', timeout: 180_000 });
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-}
-
-/** A one-line `inkroute: ` message, exit code 2, no stack trace. */
-function expectOneLine(r: ReturnType<typeof inkroute>, message: string | RegExp): void {
-  expect(r.code).toBe(2);
-  expect(r.stderr.trimEnd().split('\n'), r.stderr).toHaveLength(1);
-  expect(r.stderr.startsWith('inkroute: ')).toBe(true);
-  expect(r.stderr).not.toMatch(/^\s+at /m);
-  expect(r.stderr).toMatch(message);
-}
+import { expectUsageError, inkroute, usage } from './helpers/cli.ts';
 
 const ALL: ExportKind[] = ['svg', 'png', 'letters', 'chart', 'tei', 'annotations'];
 const OUT_NAMES: Record<ExportKind, string> = {
@@ -119,12 +101,12 @@ describe('inkroute export (spawned)', () => {
   it('a missing file, a file that is not a project, or no output: one line, exit 2, nothing written', () => {
     const sub = 'bad';
     makeDir(sub);
-    expectOneLine(inkroute('export', join(dir, 'nosuch.inkroute'), ...outArgs(sub)), /cannot read .*nosuch\.inkroute: no such file/);
+    expectUsageError(inkroute('export', join(dir, 'nosuch.inkroute'), ...outArgs(sub)), /cannot read .*nosuch\.inkroute: no such file/);
     const notZip = join(dir, 'notes.inkroute');
     writeFileSync(notZip, 'plain words, not a zip');
-    expectOneLine(inkroute('export', notZip, ...outArgs(sub)), /notes\.inkroute: the project file is damaged or not a zip/);
-    expectOneLine(inkroute('export', projectPath), /export needs at least one file to write: --svg FILE, --png FILE/);
-    expectOneLine(inkroute('export', projectPath, '--svg', join(dir, sub, 'x.svg'), '--surface', 'verso'), /--surface verso: the project has no such surface \(it has recto\)/);
+    expectUsageError(inkroute('export', notZip, ...outArgs(sub)), /notes\.inkroute: the project file is damaged or not a zip/);
+    expectUsageError(inkroute('export', projectPath), /export needs at least one file to write: --svg FILE, --png FILE/);
+    expectUsageError(inkroute('export', projectPath, '--svg', join(dir, sub, 'x.svg'), '--surface', 'verso'), /--surface verso: the project has no such surface \(it has recto\)/);
     expect(readdirSync(join(dir, sub))).toEqual([]);
   });
 
@@ -139,21 +121,12 @@ describe('inkroute export (spawned)', () => {
     expect(exportFiles(input, ['tei']).size).toBe(1);
     expect(() => exportFiles(input, ['tei', 'chart'])).toThrow(ExportError);
     const r = inkroute('export', bare, ...outArgs(sub, ['tei', 'chart']));
-    expectOneLine(r, /^inkroute: cannot export .*bare\.inkroute: there is no letter with strokes to put in the chart$/m);
+    expectUsageError(r, /^inkroute: cannot export .*bare\.inkroute: there is no letter with strokes to put in the chart$/m);
     expect(readdirSync(join(dir, sub))).toEqual([]);
   });
 });
 
 describe('export arguments', () => {
-  const usage = (fn: () => unknown) => {
-    try {
-      fn();
-    } catch (e) {
-      expect(e).toBeInstanceOf(UsageError);
-      return (e as Error).message;
-    }
-    throw new Error('expected a UsageError');
-  };
   it('needs an output, and checks numbers and choices before any file is read', () => {
     expect(usage(() => parseExportArgs({}))).toMatch(/^export needs at least one file to write/);
     expect(usage(() => parseExportArgs({ svg: 'a.svg', png: './a.svg' }))).toBe('--svg and --png name the same file ./a.svg');

@@ -1,15 +1,12 @@
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
   checkDistinct, checkInside, parseBands, parseDifficulty, parseFollowArgs, parseNumber, parsePoint,
   parsePolarity, parseRadius, parseSeed, parseWeight,
 } from '../src/cli/args.ts';
 import { loadBench } from '../src/cli/bench.ts';
-import { UsageError } from '../src/cli/errors.ts';
 import { formatFollowLine, restoredShare, strokeLength } from '../src/cli/follow.ts';
 import { formatCommanderError } from '../src/cli/program.ts';
 import { parseResultDocument, parseTruthDocument } from '../src/cli/score.ts';
@@ -17,33 +14,7 @@ import { bandFileName, parseSynthArgs } from '../src/cli/synth.ts';
 import { decodeImage, encodeGrayPng } from '../src/image/codec.ts';
 import { createGray } from '../src/image/gray.ts';
 import type { InscriptionTruth } from '../src/synth/types.ts';
-
-const BIN = fileURLToPath(new URL('../bin/inkroute.js', import.meta.url));
-
-function inkroute(...args: string[]) {
-  const r = spawnSync(process.execPath, [BIN, ...args], { encoding: 'utf8', timeout: 120_000 });
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
-}
-
-/** Asserts a one-line `inkroute: ` error with exit code 2 and no stack trace. */
-function expectUsageError(r: ReturnType<typeof inkroute>, message: string | RegExp): void {
-  expect(r.code).toBe(2);
-  expect(r.stderr.endsWith('\n')).toBe(true);
-  expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
-  expect(r.stderr.startsWith('inkroute: ')).toBe(true);
-  expect(r.stderr).not.toMatch(/^\s+at /m);
-  expect(r.stderr).toMatch(message);
-}
-
-function usage(fn: () => unknown): string {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(UsageError);
-    return (e as Error).message;
-  }
-  throw new Error('expected a UsageError');
-}
+import { expectUsageError, inkroute, usage } from './helpers/cli.ts';
 
 describe('parsePoint', () => {
   it('reads X,Y with decimals, signs and spaces', () => {

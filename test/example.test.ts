@@ -14,6 +14,7 @@ import { LETTER_LABELS, labelOf } from '../src/example/labels.ts';
 import { decodeImage } from '../src/image/codec.ts';
 import { scoreStroke } from '../src/score/index.ts';
 import { ALPHABET, testSetRecipe } from '../src/synth/index.ts';
+import { pngPhys } from './helpers/png.ts';
 
 // A medium one of the test set: two lines of 5–6 letters at 640×400 px, built in ~1.5 s.
 const RECIPE = testSetRecipe()[1];
@@ -110,12 +111,9 @@ describe('the finished example', () => {
     const bytes = ex.images.get(ref.file)!;
     const dec = decodeImage(bytes);
     expect([dec.bands[0].width, dec.bands[0].height]).toEqual([truth.width, truth.height]);
-    // PNG specification 11.3.5.3 pHYs: pixels per unit, unit 1 = metre, after IHDR.
-    const at = 8 + 25;
-    expect(new TextDecoder().decode(bytes.subarray(at + 4, at + 8))).toBe('pHYs');
-    const view = new DataView(bytes.buffer, bytes.byteOffset);
-    expect(view.getUint32(at + 8)).toBe(Math.round(truth.pxPerMm * 1000));
-    expect(bytes[at + 16]).toBe(1);
+    // PNG specification 11.3.5.3 pHYs: pixels per unit, unit 1 = metre.
+    const px = Math.round(truth.pxPerMm * 1000);
+    expect(pngPhys(bytes)).toEqual({ x: px, y: px, unit: 1 });
     expect(ex.masks.inkMask).toHaveLength(truth.width * truth.height);
   });
 

@@ -8,6 +8,7 @@ import { decode } from 'fast-png';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { canDraw, textRings, textWidth } from '../src/export/strokeFont.ts';
+import { pngPhys } from './helpers/png.ts';
 import type { Project } from '../src/doc/model.ts';
 import { finishedExample, type FinishedExample } from '../src/example/finished.ts';
 import { facsimileDrawing } from '../src/export/drawing.ts';
@@ -31,19 +32,6 @@ beforeAll(() => {
   ex = finishedExample({ seed: 4207, width: 640, height: 400, lines: 2, lettersPerLine: [5, 6], difficulty: 'medium', bands: 1, direction: 'rtl', title: 'Sherd OT-17' });
   input = inputOf(ex);
 });
-
-/** PNG chunks by type (PNG specification, 5.3 chunk layout). */
-function chunks(png: Uint8Array): Map<string, Uint8Array> {
-  const out = new Map<string, Uint8Array>();
-  const view = new DataView(png.buffer, png.byteOffset, png.byteLength);
-  for (let p = 8; p < png.length;) {
-    const len = view.getUint32(p);
-    const type = String.fromCharCode(...png.subarray(p + 4, p + 8));
-    out.set(type, png.subarray(p + 8, p + 8 + len));
-    p += 12 + len;
-  }
-  return out;
-}
 
 /** Every attribute name in a parsed document (fast-xml-parser, preserveOrder). */
 function attributeNames(node: unknown, out: Set<string>): void {
@@ -153,11 +141,7 @@ describe('facsimilePng', () => {
     const expected: Record<number, number> = { 300: 11811, 600: 23622, 1200: 47244 };
     for (const dpi of [300, 600, 1200]) {
       const png = facsimilePng(input, { dpi, scale: dpi === 1200 ? 0.5 : 1 });
-      const phys = chunks(png).get('pHYs')!;
-      const v = new DataView(phys.buffer, phys.byteOffset, 9);
-      expect(v.getUint32(0)).toBe(expected[dpi]);
-      expect(v.getUint32(4)).toBe(expected[dpi]);
-      expect(phys[8]).toBe(1);
+      expect(pngPhys(png)).toEqual({ x: expected[dpi], y: expected[dpi], unit: 1 });
       const img = decode(png);
       const scale = dpi === 1200 ? 0.5 : 1;
       expect(img.width).toBe(Math.round((d.widthMm * scale * dpi) / 25.4));

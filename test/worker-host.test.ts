@@ -260,6 +260,18 @@ describe('EngineClient over the loopback port', () => {
     expect(await client.probeImageFile(tagged)).toEqual({ format: 'png', width: W, height: H, bands: 1, bitDepth: 8, pxPerMm: 12.5 });
     await expect(client.probeImageFile(new Uint8Array([1, 2, 3, 4]))).rejects.toThrow('not an image: the file is neither PNG nor JPEG.');
     await expect(client.probeImageFile(tagged.slice(0, 80))).rejects.toThrow(/truncated/);
+    // The probe's decode serves the load of the same file only: another file is decoded afresh.
+    const other = encodeGrayPng(createGray(W, H, luma(lineB)));
+    await client.probeImageFile(tagged);
+    await client.loadImageFile('other', other);
+    await client.loadImageFile('line', other);
+    const [o, line] = await Promise.all([client.evidence('other'), client.evidence('line')]);
+    expect(o.data).toEqual(line.data);
+    expect(o.data).not.toEqual(a.data);
+    await client.loadImageFile('tagged-alone', tagged);
+    await client.probeImageFile(tagged);
+    await client.loadImageFile('tagged', tagged);
+    expect((await client.evidence('tagged')).data).toEqual((await client.evidence('tagged-alone')).data);
     client.dispose();
   });
 

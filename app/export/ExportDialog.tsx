@@ -11,7 +11,7 @@ import type { ExportOptions } from '../../src/export/exportFiles.ts';
 import { EXPORT_FILES, ExportError, type ExportKind, type FacsimileOptions, type RestoredStyle } from '../../src/export/types.ts';
 import { currentSurface } from '../canvas/view.ts';
 import { useEditor } from '../store/useEditor.ts';
-import { downloadBytes } from './download.ts';
+import { downloadExport } from './download.ts';
 import { ExportCancelled, ExportClient } from './exportClient.ts';
 import './export.css';
 
@@ -215,7 +215,7 @@ function ExportDialogBody({ onClose }: { onClose(): void }) {
           const files = await clients.files.files(project, images, surfaceId, [kinds[i]], options);
           const bytes = files.get(name);
           if (!bytes) throw new Error(`the export gave no ${name}.`);
-          downloadBytes(name, bytes);
+          downloadExport(name, bytes);
           written.push(name);
         } catch (e) {
           if (e instanceof ExportCancelled) throw e;

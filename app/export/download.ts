@@ -1,4 +1,5 @@
-/** Offers bytes as a download under a plain file name, through an <a download> of a Blob URL. */
+/** Export files as downloads. */
+import { downloadBytes } from '../persist/download.ts';
 
 /** The media type of each export file, by its name's ending. */
 export function mediaType(name: string): string {
@@ -10,15 +11,7 @@ export function mediaType(name: string): string {
   return 'application/octet-stream';
 }
 
-export function downloadBytes(name: string, bytes: Uint8Array): void {
-  const url = URL.createObjectURL(new Blob([bytes as Uint8Array<ArrayBuffer>], { type: mediaType(name) }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  a.style.display = 'none';
-  document.body.append(a);
-  a.click();
-  a.remove();
-  // The download has started by now; give it a moment before the URL goes.
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+/** Offers an export file as a download, typed by its name. */
+export function downloadExport(name: string, bytes: Uint8Array): void {
+  downloadBytes(name, bytes, mediaType(name));
 }

@@ -4,25 +4,11 @@
  * creator the exports write into their metadata. Every edit is one undo step: text fields
  * commit on Enter or when they lose the focus, the selects at once.
  */
-import type { KeyboardEvent } from 'react';
+import { commitKeys } from './fields.ts';
 import { setInscription, setTitle } from '../../src/doc/rules.ts';
 import { SCRIPTS } from '../../src/export/scripts.ts';
 import type { Inscription } from '../../src/doc/model.ts';
 import { editorStore, useEditor } from '../store/useEditor.ts';
-
-/** Enter commits a one-line field (by leaving it); Esc puts back what it held. */
-function commitKeys(original: string) {
-  return (e: KeyboardEvent<HTMLInputElement>) => {
-    if (e.key === 'Enter') {
-      e.preventDefault();
-      e.currentTarget.blur();
-    } else if (e.key === 'Escape') {
-      e.preventDefault();
-      e.currentTarget.value = original;
-      e.currentTarget.blur();
-    }
-  };
-}
 
 function changeInscription(patch: Partial<Inscription>): void {
   const p = editorStore.getState().project;

@@ -4,7 +4,8 @@
  * the transcription line by line with the Leiden marks, the letters and text marks in
  * reading order, and the inscription's settings. Every edit is one undo step.
  */
-import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
+import { useEffect, useRef, useState } from 'react';
+import { commitKeys } from './fields.ts';
 import { letterBox } from '../../src/doc/layout.ts';
 import type { Letter, Project, TextMark } from '../../src/doc/model.ts';
 import { deleteLetters, deleteTextMarks, updateLetter, updateTextMark } from '../../src/doc/rules.ts';
@@ -31,20 +32,6 @@ function letterTool(): LetterTool | undefined {
   switchTool(editorStore, 'letter');
   const t = activeTool();
   return t?.name === 'letter' ? (t as LetterTool) : undefined;
-}
-
-/** Enter commits a one-line field (by leaving it); Esc puts back what it held. */
-function commitKeys(original: string) {
-  return (e: KeyboardEvent<HTMLInputElement>) => {
-    if (e.key === 'Enter') {
-      e.preventDefault();
-      e.currentTarget.blur();
-    } else if (e.key === 'Escape') {
-      e.preventDefault();
-      e.currentTarget.value = original;
-      e.currentTarget.blur();
-    }
-  };
 }
 
 function codePoint(ch: string): string {

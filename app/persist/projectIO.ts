@@ -9,6 +9,7 @@ import { decodeImage, sniffFormat } from '../../src/image/codec.ts';
 import type { EditorStore } from '../store/store.ts';
 import { editorStore } from '../store/useEditor.ts';
 import { engineIfStarted } from '../engine/instance.ts';
+import { downloadBytes } from './download.ts';
 import type { ImageProbe } from '../../src/worker/protocol.ts';
 
 /** File name extension of project files. */
@@ -45,16 +46,7 @@ export function saveProjectFile(store: EditorStore = editorStore): string | unde
     return undefined;
   }
   const name = projectFileName(s.project.title);
-  const url = URL.createObjectURL(new Blob([bytes as Uint8Array<ArrayBuffer>], { type: 'application/zip' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  a.style.display = 'none';
-  document.body.append(a);
-  a.click();
-  a.remove();
-  // The download has started by now; give it a moment before the URL goes.
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+  downloadBytes(name, bytes, 'application/zip');
   store.getState().markSaved();
   return name;
 }

@@ -9,8 +9,6 @@ import type { Letter, Project, StrokeDoc, Surface } from '../doc/model.ts';
 import { differenceRings, intersectRings, ringArea, unionRings } from './clip.ts';
 import { penOutline, type Ring } from './outline.ts';
 import { strokeParts } from './strokeParts.ts';
-
-export { differenceRings, ringArea, unionRings };
 import { ExportError } from './types.ts';
 
 /** A letter with its geometry, px (and mm when its surface is calibrated). */

@@ -37,9 +37,11 @@ const STEP = 0.25;
 /** Ground is read beyond the pen edge plus this margin, px. */
 const GROUND_GAP = 2.5;
 
-/** Reused buffers: profiles are at most this many steps long. */
-let profile = new Float64Array(256);
-let ground = new Float64Array(256);
+/** Most steps in a profile (±31.75 px): a pen of radius above about 27 px keeps its solved width (no ground in reach). */
+const MAX_STEPS = 255;
+/** Reused buffers, one profile long. */
+const profile = new Float64Array(MAX_STEPS);
+const ground = new Float64Array(MAX_STEPS);
 
 /**
  * Measures width and centre of `samples` in place (see the module comment). Returns the
@@ -78,11 +80,7 @@ export function measureOnImage(image: GrayImage, samples: StrokeSample[], restor
     if (inRestored[i] || skip[i]) continue;
     const r0 = samples[i].r;
     const half = r0 + REACH;
-    const m = Math.min(255, Math.round((2 * half) / STEP)) | 1;
-    if (profile.length < m) {
-      profile = new Float64Array(m);
-      ground = new Float64Array(m);
-    }
+    const m = Math.min(MAX_STEPS, Math.round((2 * half) / STEP) | 1);
     const c = (m - 1) >> 1;
     profile.fill(0, 0, m);
     let count = 0;

@@ -6,7 +6,12 @@
  * worker runs it, and so do Node tests and the in-process engine.
  */
 import type { Anchor, SolverSettings } from '../doc/model.ts';
-import { decodeImage } from '../image/codec.ts';
+import { crc32, decodeImage, type DecodedImage } from '../image/codec.ts';
+
+/** Names a file's bytes: its length and CRC-32 (far cheaper than decoding it again). */
+function fileKey(bytes: Uint8Array): string {
+  return `${bytes.length}:${crc32(bytes)}`;
+}
 import { createGray, type GrayImage } from '../image/gray.ts';
 import { inkEvidence } from '../ink/index.ts';
 import { followStroke, prepareInk, startPreview, type PreparedInk, type PreviewTree, type Stroke, type StrokeSample } from '../trace/index.ts';
@@ -81,6 +86,8 @@ export class EngineHost {
       case 'probe-file':
         try {
           const d = decodeImage(msg.bytes);
+          // The file is usually loaded right after it is checked: keep its decode for that.
+          this.probed = { key: fileKey(msg.bytes), decoded: d };
           const probe: ImageProbe = { format: d.format, width: d.bands[0].width, height: d.bands[0].height, bands: d.bands.length, bitDepth: d.bitDepth };
           if (d.pxPerMm !== undefined) probe.pxPerMm = d.pxPerMm;
           this.send({ type: 'probed', id: msg.id, ...probe }, []);
@@ -158,15 +165,21 @@ export class EngineHost {
     this.solves.length = 0;
     this.cold.length = 0;
     this.images.clear();
+    this.probed = undefined;
   }
 
   private loadImage(msg: LoadImageRequest): void {
     this.prepareImage(msg.id, msg.imageId, () => createGray(msg.width, msg.height, msg.luma));
   }
 
+  /** The last file checked by 'probe-file', decoded, until a 'load-file' takes it. */
+  private probed: { key: string; decoded: DecodedImage } | undefined;
+
   private loadFile(msg: LoadFileRequest): void {
     this.prepareImage(msg.id, msg.imageId, () => {
-      const decoded = decodeImage(msg.bytes);
+      const key = fileKey(msg.bytes);
+      const decoded = this.probed?.key === key ? this.probed.decoded : decodeImage(msg.bytes);
+      this.probed = undefined;
       const band = msg.band ?? 0;
       const gray = decoded.bands[band];
       if (!gray) throw new RangeError(`the image has ${decoded.bands.length} band(s), not a band ${band + 1}.`);

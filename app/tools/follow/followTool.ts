@@ -8,8 +8,8 @@
  *                   │  down elsewhere: one more anchor; Backspace: one less (none: idle)
  *   Esc anywhere ──▶ idle, with no change to the document.
  */
-import type { Anchor, Project, StrokeDoc } from '../../../src/doc/model.ts';
-import { addStroke, newId } from '../../../src/doc/rules.ts';
+import type { Anchor, Project } from '../../../src/doc/model.ts';
+import { addStroke, newId, strokeFromSolve } from '../../../src/doc/rules.ts';
 import type { StrokeSample } from '../../../src/trace/types.ts';
 import type { JobsSlice } from '../../store/store.ts';
 import { StateMachine, type StateNode } from '../machine.ts';
@@ -162,16 +162,7 @@ export function createFollowTool(ctx: ToolContext): Tool {
       const now = project();
       if (!now) return reset();
       const surfaceId = surfaceOfImage(now, imageId)?.surface.id ?? now.surfaces[0].id;
-      const stroke: StrokeDoc = {
-        id: newId('s'),
-        surfaceId,
-        anchors: fixed,
-        samples: result.stroke.samples,
-        restoredSpans: result.stroke.restoredSpans,
-        overrides: [],
-        cost: result.stroke.cost,
-        hidden: false,
-      };
+      const stroke = strokeFromSolve(newId('s'), surfaceId, fixed, result.stroke);
       st().change((q) => addStroke(q, stroke));
       st().setLastSolve(result.ms);
       st().select([stroke.id]);
